@@ -1,0 +1,22 @@
+"""quasicert: exact replay of certificates about Dedekind-type sums and lattice-point counts.
+
+Public surface:
+
+- ``evaluate(text)``: the exact value of an expression, a Fraction.
+- ``functions``: the kernel functions under their names in the language,
+  plain callables on ints and Fractions.
+- ``CertificateError`` and its subclasses: every error a user can cause.
+- ``Limits``: the budgets that bound costly requests.
+"""
+from . import functions
+from .errors import BudgetExceeded, CertificateError, DomainError, RuleRefused, SyntaxProblem, UsageError
+from .evaluation import evaluate, evaluate_value
+from .limits import DEFAULT_LIMITS, Limits
+
+__all__ = [
+    "evaluate", "evaluate_value", "functions",
+    "CertificateError", "SyntaxProblem", "DomainError", "BudgetExceeded", "RuleRefused", "UsageError",
+    "Limits", "DEFAULT_LIMITS",
+]
+
+__version__ = "0.1.0"

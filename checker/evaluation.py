@@ -1,0 +1,229 @@
+"""Exact evaluation of expression trees.
+
+Values are Fractions, or tuples of them for lists.  Every problem is a
+CertificateError pointing at the sub-expression that caused it; every costly
+step is measured against the Limits first.  No text is ever executed: the
+tree comes from the grammar, and names resolve only to values bound by the
+certificate or to the functions of ``checker.functions``.
+"""
+from __future__ import annotations
+
+import difflib
+from fractions import Fraction
+
+from . import expressions as ex
+from .dedekind import dedekind_along_euclid
+from .errors import BudgetExceeded, CertificateError, DomainError
+from .functions import REGISTRY
+from .limits import DEFAULT_LIMITS, Limits
+from .parsing import parse_expression
+
+__all__ = ["Evaluator", "evaluate", "evaluate_value"]
+
+_MEMO_SIZE = 400_000
+_EUCLID_MEMO_BITS = 256     # from this size on, one pass fills every pair of a reciprocity chain
+
+
+class Evaluator:
+    """Evaluates trees in an environment of named values, with a memo of function values."""
+
+    def __init__(self, env: dict | None = None, limits: Limits = DEFAULT_LIMITS):
+        self.env = dict(env or {})
+        self.limits = limits
+        self.memo: dict = {}
+
+    # -- public -------------------------------------------------------------
+    def value(self, node: ex.Expr):
+        """Fraction or tuple of Fractions."""
+        method = getattr(self, "_" + type(node).__name__)
+        try:
+            return method(node)
+        except CertificateError as e:
+            raise e.at(node)
+        except RecursionError:
+            raise BudgetExceeded("the expression is nested too deeply to evaluate").at(node) from None
+
+    def number(self, node: ex.Expr) -> Fraction:
+        v = self.value(node)
+        if isinstance(v, tuple):
+            raise DomainError("a list stands where a number is needed").at(node)
+        return v
+
+    def call(self, name: str, args: tuple, node=None):
+        """Value of a function at concrete arguments, memoised."""
+        spec = REGISTRY.get(name)
+        if spec is None:
+            raise DomainError(_unknown_function(name)).at(node)
+        key = (name, args)
+        hit = self.memo.get(key)
+        if hit is not None:
+            return hit
+        if name == "dedekind" and self._fill_euclid(args):
+            hit = self.memo.get(key)
+            if hit is not None:
+                return hit
+        result = spec.call(args, self.limits)
+        self._check_size(result)
+        self._remember(key, result)
+        return result
+
+    # -- nodes --------------------------------------------------------------
+    def _Num(self, node):
+        return Fraction(node.value)
+
+    def _Name(self, node):
+        if node.name in self.env:
+            return self.env[node.name]
+        if node.name in REGISTRY:
+            raise DomainError(f"'{node.name}' is a function: call it as "
+                              f"{node.name}({REGISTRY[node.name].signature})")
+        near = difflib.get_close_matches(node.name, list(self.env), n=1)
+        hint = f" (did you mean '{near[0]}'?)" if near else ""
+        raise DomainError(f"unknown name '{node.name}'{hint}: give it a value with `let` first")
+
+    def _Neg(self, node):
+        return -self.number(node.operand)
+
+    def _Sum(self, node):
+        total = Fraction(0)
+        for sign, term in node.terms:
+            v = self.number(term)
+            total = total + v if sign > 0 else total - v
+            self._check_size(total, term)
+        return total
+
+    def _Product(self, node):
+        acc = Fraction(1)
+        for divide, factor in node.factors:
+            v = self.number(factor)
+            if divide:
+                if v == 0:
+                    raise DomainError("division by zero: this divisor is 0").at(factor)
+                acc = acc / v
+            else:
+                acc = acc * v
+            self._check_size(acc, factor)
+        return acc
+
+    def _Power(self, node):
+        base = self.number(node.base)
+        exponent = self.number(node.exponent)
+        if exponent.denominator != 1:
+            raise DomainError(f"the exponent must be an integer, not {exponent} "
+                              "(a fractional power is not rational in general)").at(node.exponent)
+        e = exponent.numerator
+        if base == 0 and e < 0:
+            raise DomainError("0 to a negative power is a division by zero").at(node)
+        if base in (0, 1):
+            return base
+        if base == -1:
+            return Fraction(1 if e % 2 == 0 else -1)
+        size = max(base.numerator.bit_length(), base.denominator.bit_length())
+        # a lower bound on the result's size, within a factor 2: refuse before computing
+        needed = (size - 1) * abs(e) + 1 if abs(e) < (1 << 64) else 1 << 64
+        self.limits.require("integer_bits", needed, f"the power {_short(base)}^{_short(exponent)}")
+        result = base ** e
+        self._check_size(result, node)
+        return result
+
+    def _Call(self, node):
+        args = tuple(self.value(a) for a in node.args)
+        return self.call(node.name, args, node)
+
+    def _ListExpr(self, node):
+        items = []
+        for item in node.items:
+            v = self.value(item)
+            if isinstance(v, tuple):
+                raise DomainError("a list inside a list is not supported").at(item)
+            items.append(v)
+        return tuple(items)
+
+    def _FiniteSum(self, node):
+        lower = _integer(self.number(node.lower), "the lower end of a sum", node.lower)
+        upper = _integer(self.number(node.upper), "the upper end of a sum", node.upper)
+        count = upper - lower + 1
+        self.limits.require("terms", max(count, 0), f"a sum of {max(count, 0)} terms")
+        saved = self.env.get(node.var, _MISSING)
+        total = Fraction(0)
+        try:
+            for j in range(lower, upper + 1):
+                self.env[node.var] = Fraction(j)
+                total += self.number(node.body)
+                self._check_size(total, node)
+        finally:
+            if saved is _MISSING:
+                self.env.pop(node.var, None)
+            else:
+                self.env[node.var] = saved
+        return total
+
+    # -- helpers ------------------------------------------------------------
+    def _check_size(self, v, node=None):
+        if isinstance(v, Fraction):
+            bits = max(v.numerator.bit_length(), v.denominator.bit_length())
+            if bits > self.limits.integer_bits:
+                raise BudgetExceeded(f"an intermediate value has {bits} bits, over the limit "
+                                     f"integer-bits = {self.limits.integer_bits}").at(node)
+
+    def _remember(self, key, value):
+        if len(self.memo) > _MEMO_SIZE:
+            self.memo.clear()
+        self.memo[key] = value
+
+    def _fill_euclid(self, args) -> bool:
+        """For big arguments, compute s at every pair of the Euclid chain at once."""
+        if len(args) != 2 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
+            return False
+        h, k = args[0].numerator, args[1].numerator
+        if k < 1 or k.bit_length() < _EUCLID_MEMO_BITS:
+            return False
+        values = dedekind_along_euclid(h, k)
+        for (a, b), v in values.items():
+            self._remember(("dedekind", (Fraction(a), Fraction(b))), v)
+        self._remember(("dedekind", args), values[_reduced(h, k)])
+        return True
+
+
+_MISSING = object()
+
+
+def _reduced(h, k):
+    from math import gcd
+    h %= k
+    g = gcd(h, k)
+    return h // g, k // g
+
+
+def _integer(v: Fraction, what: str, node) -> int:
+    if v.denominator != 1:
+        raise DomainError(f"{what} must be an integer, not {v}").at(node)
+    return v.numerator
+
+
+def _short(v: Fraction) -> str:
+    s = f"{v.numerator}" if v.denominator == 1 and v.numerator.bit_length() < 200 else "a big number"
+    return s if v.denominator == 1 else "a fraction"
+
+
+def _unknown_function(name: str) -> str:
+    near = difflib.get_close_matches(name, list(REGISTRY), n=2)
+    hint = f" (did you mean {' or '.join(near)}?)" if near else ""
+    return f"unknown function '{name}'{hint}; `quasicert functions` lists them"
+
+
+def evaluate_value(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS):
+    """Value of an expression text: a Fraction, or a tuple for a list."""
+    return Evaluator(env, limits).value(parse_expression(text, limits))
+
+
+def evaluate(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS) -> Fraction:
+    """The exact value of an expression text, as a Fraction.
+
+    >>> evaluate("dedekind(5, 17)")                # Rademacher & Grosswald's tables
+    Fraction(1, 17)
+    >>> evaluate("-2^2"), evaluate("2^3^2")
+    (Fraction(-4, 1), Fraction(512, 1))
+    """
+    expr = parse_expression(text, limits)
+    return Evaluator(env, limits).number(expr)

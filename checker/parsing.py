@@ -1,0 +1,320 @@
+"""Reading text into expression trees and certificates.
+
+The grammar lives in ``grammar/*.lark`` (shipped inside the package as
+``checker.grammar``).  Lark parses; a non-recursive Transformer only builds
+the dataclasses of ``expressions`` and ``statements``; nothing here checks
+mathematics.  Every Lark error becomes a ``SyntaxProblem`` whose message names
+what was expected in words, at a 1-based line and column.
+"""
+from __future__ import annotations
+
+from functools import lru_cache
+from pathlib import Path
+
+from lark import Lark, Token
+from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
+from lark.visitors import Transformer_NonRecursive, v_args
+
+from . import expressions as ex
+from . import statements as st
+from .errors import BudgetExceeded, CertificateError, SyntaxProblem
+from .limits import DEFAULT_LIMITS, Limits
+from .numbers import text_int
+
+__all__ = ["parse_expression", "parse_certificate", "grammar_text", "resource_dir"]
+
+
+def resource_dir(package: str, fallback: str) -> Path:
+    """Folder of a data package: inside the installed wheel, or the repository's own."""
+    try:
+        from importlib.resources import files
+        path = Path(str(files(package)))
+        if path.is_dir():
+            return path
+    except (ModuleNotFoundError, TypeError):
+        pass
+    return Path(__file__).resolve().parent.parent / fallback
+
+
+def grammar_text() -> str:
+    folder = resource_dir("checker.grammar", "grammar")
+    return (folder / "expression.lark").read_text(encoding="utf-8") + "\n" + \
+        (folder / "certificate.lark").read_text(encoding="utf-8")
+
+
+@lru_cache(maxsize=1)
+def _parser() -> Lark:
+    return Lark(grammar_text(), parser="lalr", start=["expr", "certificate"],
+                propagate_positions=True, maybe_placeholders=True)
+
+
+def _pos(meta) -> ex.Pos:
+    if getattr(meta, "empty", False):
+        return ex.NOWHERE
+    return ex.Pos(meta.line, meta.column, meta.end_line, meta.end_column)
+
+
+def _tpos(tok: Token) -> ex.Pos:
+    return ex.Pos(tok.line, tok.column, tok.end_line, tok.end_column)
+
+
+def _span(a: ex.Pos, b: ex.Pos) -> ex.Pos:
+    return ex.Pos(a.line, a.column, b.end_line, b.end_column)
+
+
+_RELATIONS = {"=": "=", "<": "<", ">": ">", "<=": "<=", ">=": ">=", "!=": "!=",
+              "\u2264": "<=", "\u2265": ">=", "\u2260": "!="}
+
+
+class _Build(Transformer_NonRecursive):
+    """Lark tree -> dataclasses.  Builds only; never judges."""
+
+    def __init__(self, limits: Limits):
+        super().__init__()
+        self.limits = limits
+
+    # -- expressions -------------------------------------------------------
+    def number(self, children):
+        tok = children[0]
+        if len(tok) > self.limits.literal_digits:
+            raise BudgetExceeded(
+                f"an integer literal of {len(tok)} digits is over the limit literal-digits = "
+                f"{self.limits.literal_digits}", tok.line, tok.column)
+        return ex.Num(text_int(str(tok)), _tpos(tok))
+
+    def name(self, children):
+        tok = children[0]
+        return ex.Name(str(tok), _tpos(tok))
+
+    @v_args(meta=True)
+    def call(self, meta, children):
+        tok, args = children
+        return ex.Call(str(tok), tuple(args or ()), _pos(meta))
+
+    def arguments(self, children):
+        return list(children)
+
+    @v_args(meta=True)
+    def list(self, meta, children):
+        items = children[0] or []
+        if len(items) > self.limits.list_length:
+            raise BudgetExceeded(f"a list of {len(items)} entries is over the limit list-length = "
+                                 f"{self.limits.list_length}", meta.line, meta.column)
+        return ex.ListExpr(tuple(items), _pos(meta))
+
+    @v_args(meta=True)
+    def finite_sum(self, meta, children):
+        var, lower, upper, body = children
+        return ex.FiniteSum(str(var), lower, upper, body, _pos(meta))
+
+    @v_args(meta=True)
+    def neg(self, meta, children):
+        return ex.Neg(children[1], _pos(meta))
+
+    @v_args(meta=True)
+    def power(self, meta, children):
+        return ex.Power(children[0], children[1], _pos(meta))
+
+    @v_args(meta=True)
+    def sum(self, meta, children):
+        terms = [(1, children[0])]
+        for op, term in zip(children[1::2], children[2::2]):
+            terms.append((1 if op == "+" else -1, term))
+        return ex.Sum(tuple(terms), _pos(meta))
+
+    @v_args(meta=True)
+    def product(self, meta, children):
+        factors = [(False, children[0])]
+        for op, factor in zip(children[1::2], children[2::2]):
+            factors.append((op == "/", factor))
+        return ex.Product(tuple(factors), _pos(meta))
+
+    # -- statements --------------------------------------------------------
+    def certificate(self, children):
+        return list(children)
+
+    @v_args(meta=True)
+    def title(self, meta, children):
+        return st.Title(str(children[0])[1:-1], _pos(meta))
+
+    @v_args(meta=True)
+    def source(self, meta, children):
+        return st.Source(str(children[0])[1:-1], _pos(meta))
+
+    @v_args(meta=True)
+    def let(self, meta, children):
+        return st.Let(str(children[0]), children[1], _pos(meta))
+
+    def label(self, children):
+        return str(children[0])
+
+    def relation(self, children):
+        return _RELATIONS[str(children[0])]
+
+    @v_args(meta=True)
+    def claim(self, meta, children):
+        label, lhs, relation, rhs = children
+        return st.Claim(label, lhs, relation, rhs, _pos(meta))
+
+    @v_args(meta=True)
+    def congruence(self, meta, children):
+        label, lhs, _sym, rhs, modulus = children
+        return st.Congruence(label, lhs, rhs, modulus, _pos(meta))
+
+    @v_args(meta=True)
+    def chain(self, meta, children):
+        label, start, *steps = children
+        return st.Chain(label, start, tuple(steps), _pos(meta))
+
+    @v_args(meta=True)
+    def step(self, meta, children):
+        expr, *rules = children
+        return st.Step(expr, tuple(rules), _pos(meta))
+
+    @v_args(meta=True)
+    def rule(self, meta, children):
+        return st.RuleRef(str(children[0]), None, _pos(meta))
+
+    @v_args(meta=True)
+    def use_claim(self, meta, children):
+        return st.RuleRef("claim", str(children[0]), _pos(meta))
+
+
+def _check_depth(tree, limits: Limits) -> None:
+    """Refuse trees nested deeper than the budget, before anything recurses on them."""
+    depth = {}
+    for sub in tree.iter_subtrees():       # children come before their parents
+        d = 1
+        for child in sub.children:
+            if hasattr(child, "children"):
+                d = max(d, depth[id(child)] + 1)
+        depth[id(sub)] = d
+        if d > limits.nesting and sub.data not in ("certificate",):
+            meta = sub.meta
+            raise BudgetExceeded(
+                f"the expression is nested {d} levels deep, over the limit nesting = {limits.nesting}",
+                getattr(meta, "line", None), getattr(meta, "column", None))
+
+
+def _parse(text: str, start: str, limits: Limits):
+    if "\x00" in text:
+        i = text.index("\x00")
+        line = text.count("\n", 0, i) + 1
+        column = i - (text.rfind("\n", 0, i) + 1) + 1
+        raise SyntaxProblem("the text contains a NUL character", line, column)
+    try:
+        tree = _parser().parse(text, start=start)
+    except UnexpectedInput as e:
+        raise _syntax_problem(e, text, start == "expr") from None
+    _check_depth(tree, limits)
+    try:
+        return _Build(limits).transform(tree)
+    except VisitError as e:
+        if isinstance(e.orig_exc, CertificateError):
+            raise e.orig_exc from None
+        raise
+
+
+def parse_expression(text: str, limits: Limits = DEFAULT_LIMITS) -> ex.Expr:
+    """Parse one expression (the language of `quasicert eval`)."""
+    return _parse(text, "expr", limits)
+
+
+def parse_certificate(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS) -> st.Certificate:
+    """Parse a whole certificate text."""
+    try:
+        statements = _parse(text, "certificate", limits)
+    except CertificateError as e:
+        e.source = e.source or name
+        raise
+    return st.Certificate(tuple(statements), name, text)
+
+
+# -- syntax errors in words ------------------------------------------------
+
+_WORDS = {
+    "INT": "a number", "NAME": "a name", "STRING": 'a quoted text "..."',
+    "ADDOP": "'+' or '-'", "MULOP": "'*' or '/'", "MINUS": "'-'",
+    "EQUALS": "'='", "LESS_EQUAL": "'<='", "GREATER_EQUAL": "'>='", "NOT_EQUAL": "'!='",
+    "LESS": "'<'", "GREATER": "'>'", "CONGRUENT": "'=='",
+    "$END": "the end of the text",
+}
+
+_STATEMENT_WORDS = {"title", "source", "let", "claim", "chain"}
+
+
+def _describe_terminal(name: str) -> str:
+    if name in _WORDS:
+        return _WORDS[name]
+    try:
+        term = _parser().get_terminal(name)
+        pattern = term.pattern
+        if pattern.type == "str":
+            return f"'{pattern.value}'"
+    except (KeyError, AttributeError):
+        pass
+    return name.lower()
+
+
+def _expected_words(expected) -> str:
+    words = sorted({_describe_terminal(t) for t in expected})
+    statements = [w for w in words if w.strip("'") in _STATEMENT_WORDS]
+    others = [w for w in words if w not in statements]
+    if statements:
+        others.append("a new statement (" + ", ".join(s.strip("'") for s in statements) + ")")
+    if len(others) > 1:
+        return ", ".join(others[:-1]) + " or " + others[-1]
+    return others[0] if others else "something else"
+
+
+def _keep(expected, expr_only: bool):
+    """Terminals worth naming; an expression alone has no statements or relations."""
+    names = {_terminal_name(t) for t in expected}
+    if expr_only:
+        kept = {t for t in names if t not in _NOT_IN_EXPRESSIONS and _describe_terminal(t) not in ("'..'", "'by'", "'mod'", "':'")}
+        return kept or names
+    return names
+
+
+def _terminal_name(t) -> str:
+    return t if isinstance(t, str) else getattr(t, "name", str(t))
+
+
+def _end_position(text: str) -> tuple[int, int]:
+    lines = text.split("\n")
+    return len(lines), len(lines[-1]) + 1
+
+
+_LANGUAGE_CHARACTERS = set("+-*/^()[],.=<>!:#\"_'\u2212\u00b7\u00d7\u2264\u2265\u2260\u2261 \t\r\n")
+_NOT_IN_EXPRESSIONS = {"EQUALS", "LESS_EQUAL", "GREATER_EQUAL", "NOT_EQUAL", "LESS", "GREATER",
+                       "CONGRUENT", "BY", "MOD", "TITLE", "SOURCE", "LET", "CLAIM", "CHAIN", "COLON"}
+
+
+def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> SyntaxProblem:
+    if isinstance(e, UnexpectedEOF) or getattr(e, "line", -1) in (-1, None):
+        line, column = _end_position(text)
+        expected = getattr(e, "expected", None) or []
+        return SyntaxProblem(f"the text ends too early: expected {_expected_words(_keep(expected, expr_only))}",
+                             line, column)
+    if isinstance(e, UnexpectedCharacters):
+        ch = text[e.pos_in_stream] if e.pos_in_stream < len(text) else ""
+        shown = f"'{ch}'" if ch.isprintable() and ch != " " else f"U+{ord(ch):04X}" if ch else "?"
+        msg = f"unexpected character {shown}"
+        allowed = [t for t in (getattr(e, "allowed", None) or ()) if t not in _NOT_IN_EXPRESSIONS or not expr_only]
+        if allowed and len(allowed) <= 6:
+            msg += f": expected {_expected_words(allowed)}"
+        elif ch and not (ch.isalnum() or ch in _LANGUAGE_CHARACTERS):
+            msg += " (it is not part of the language)"
+        return SyntaxProblem(msg, e.line, e.column, e.column + 1)
+    if isinstance(e, UnexpectedToken):
+        tok = e.token
+        if tok.type == "$END":
+            line, column = _end_position(text)
+            return SyntaxProblem(f"the text ends too early: expected {_expected_words(_keep(e.expected, expr_only))}",
+                                 line, column)
+        shown = str(tok)
+        if len(shown) > 30:
+            shown = shown[:27] + "..."
+        return SyntaxProblem(f"unexpected '{shown}': expected {_expected_words(_keep(e.expected, expr_only))}",
+                             e.line, e.column, (tok.end_column if tok.end_line == tok.line else None))
+    return SyntaxProblem(str(e), getattr(e, "line", None), getattr(e, "column", None))

@@ -1,0 +1,82 @@
+"""Certificate statements: plain frozen dataclasses carrying source positions."""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Optional, Union
+
+from .expressions import NOWHERE, Expr, Pos
+
+__all__ = ["Title", "Source", "Let", "Claim", "Congruence", "RuleRef", "Step",
+           "Chain", "Statement", "Certificate"]
+
+
+@dataclass(frozen=True)
+class Title:
+    text: str
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Source:
+    text: str
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Let:
+    name: str
+    expr: Expr
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Claim:
+    """lhs RELATION rhs; relation is one of = < <= > >= !="""
+    label: Optional[str]
+    lhs: Expr
+    relation: str
+    rhs: Expr
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Congruence:
+    """lhs == rhs mod modulus: (lhs - rhs)/modulus is an integer."""
+    label: Optional[str]
+    lhs: Expr
+    rhs: Expr
+    modulus: Expr
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class RuleRef:
+    """A rule named in a step: `reciprocity`, or `claim LABEL` (name 'claim')."""
+    name: str
+    label: Optional[str] = None
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Step:
+    expr: Expr
+    rules: tuple
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Chain:
+    label: Optional[str]
+    start: Expr
+    steps: tuple
+    pos: Pos = NOWHERE
+
+
+Statement = Union[Title, Source, Let, Claim, Congruence, Chain]
+
+
+@dataclass(frozen=True)
+class Certificate:
+    statements: tuple
+    name: str = "<text>"
+    text: str = field(default="", repr=False, compare=False)

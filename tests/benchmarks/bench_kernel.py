@@ -1,0 +1,98 @@
+"""Kernel speed, as ratios against references timed in the same run.
+
+Run on demand:  python tests/benchmarks/bench_kernel.py
+Needs the test extras (python-flint, mpmath).
+"""
+from __future__ import annotations
+
+import os
+import random
+import sys
+import time
+from math import gcd
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
+
+import flint  # noqa: E402
+import mpmath  # noqa: E402
+
+from checker.dedekind import dedekind  # noqa: E402
+from checker.fourier_dedekind import fourier_dedekind  # noqa: E402
+from checker.partitions import PartitionQuasiPolynomial, partitions, partitions_by_table  # noqa: E402
+
+
+def best_of(fn, repeat=5):
+    times = []
+    for _ in range(repeat):
+        t = time.perf_counter()
+        fn()
+        times.append(time.perf_counter() - t)
+    return min(times)
+
+
+def coprime_pairs(rng, digits, count):
+    pairs = []
+    while len(pairs) < count:
+        k = rng.randrange(10 ** (digits - 1), 10 ** digits)
+        h = rng.randrange(1, k)
+        if gcd(h, k) == 1:
+            pairs.append((h, k))
+    return pairs
+
+
+def bench_dedekind():
+    rng = random.Random(1)
+    print("dedekind(h, k) against python-flint fmpq.dedekind_sum (goal: 3x, 3x, 10x)")
+    for digits, count in ((20, 2000), (100, 1000), (1000, 100)):
+        pairs = coprime_pairs(rng, digits, count)
+        ours = best_of(lambda: [dedekind(h, k) for h, k in pairs])
+        ref = best_of(lambda: [flint.fmpq.dedekind_sum(h, k) for h, k in pairs])
+        print(f"  {digits:5d} digits: {ours / count * 1e6:9.1f} us vs {ref / count * 1e6:7.1f} us"
+              f"   ratio {ours / ref:5.1f}x")
+
+
+def mpmath_fourier_dedekind(n, parts, b):
+    with mpmath.workdps(20):
+        total = mpmath.mpc(0)
+        for j in range(1, b):
+            term = mpmath.expjpi(mpmath.mpf(2 * j * n) / b)
+            for a in parts:
+                term /= 1 - mpmath.expjpi(mpmath.mpf(2 * j * a) / b)
+            total += term
+        return total / b
+
+
+def bench_fourier_dedekind():
+    print("fourier_dedekind (exact) against summing the definition with mpmath at 20 digits")
+    b = 10007
+    ours = best_of(lambda: fourier_dedekind(12345, [3, 5, 7], b), 3)
+    ref = best_of(lambda: mpmath_fourier_dedekind(12345, [3, 5, 7], b), 1)
+    print(f"  m = 3, b = {b}: {ours * 1e3:8.2f} ms (goal < 500 ms); mpmath {ref * 1e3:8.1f} ms;"
+          f" ratio {ours / ref:6.3f}x")
+    b = 10**49 + 9
+    ours = best_of(lambda: fourier_dedekind(10**30 + 1, [3, 7], b), 20)
+    ref = best_of(lambda: dedekind(3, b), 20)
+    print(f"  m = 2, b of 50 digits: {ours * 1e3:8.3f} ms (goal < 10 ms); one dedekind at that size"
+          f" {ref * 1e3:.3f} ms; ratio {ours / ref:5.1f}x")
+
+
+def bench_partitions():
+    print("partitions(n, A): quasi-polynomial against the coefficient table")
+    parts = [3, 5, 7, 11, 13]
+    n = 10**6
+    PartitionQuasiPolynomial._instances.clear()
+    ours = best_of(lambda: (PartitionQuasiPolynomial._instances.clear(), partitions(n, parts)), 3)
+    ref = best_of(lambda: partitions_by_table(n, parts), 1)
+    print(f"  n = 10^6, A = {parts}: {ours * 1e3:8.2f} ms (goal < 1 s); table {ref * 1e3:8.1f} ms;"
+          f" ratio {ours / ref:6.4f}x")
+    rng = random.Random(3)
+    cases = [[997, 991, 983, 977, 971], [1000, 999, 998, 997, 996], sorted(rng.sample(range(2, 1001), 5))]
+    for parts in cases:
+        ours = best_of(lambda: (PartitionQuasiPolynomial._instances.clear(), partitions(10**30, parts)), 1)
+        print(f"  n = 10^30, A = {parts}: {ours * 1e3:9.1f} ms from scratch (goal < 2 s)")
+
+
+if __name__ == "__main__":
+    bench_dedekind()
+    bench_fourier_dedekind()
+    bench_partitions()

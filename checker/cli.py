@@ -92,13 +92,91 @@ def _cmd_functions(out) -> int:
     return EXIT_OK
 
 
+def _cmd_rules(out) -> int:
+    from .rules import RULES, WHOLE_LINE_RULES
+    for rule in RULES.values():
+        print(f"{rule.name}\n    {rule.statement}\n    needs: {rule.conditions}\n    source: {rule.source}",
+              file=out)
+    for name, (statement, conditions, source) in WHOLE_LINE_RULES.items():
+        head = "claim LABEL" if name == "claim" else name
+        print(f"{head}\n    {statement}\n    needs: {conditions}", file=out)
+    return EXIT_OK
+
+
+def certificate_paths(paths: Sequence[str]) -> list:
+    """Files named, and the *.qcert files below folders named, in a stable order."""
+    from pathlib import Path
+    found = []
+    for p in paths:
+        path = Path(p)
+        if path.is_dir():
+            found.extend(sorted(q for q in path.rglob("*.qcert") if q.is_file()))
+        elif path.exists():
+            found.append(path)
+        else:
+            raise UsageError(f"no such file or folder: {p}")
+    return found
+
+
+def bundled_certificates() -> list:
+    from .parsing import resource_dir
+    folder = resource_dir("checker.certificates", "certificates")
+    return sorted(q for q in folder.rglob("*.qcert") if q.is_file())
+
+
+def _cmd_check(ns, out, err) -> int:
+    import time
+    from .checking import check_file
+    from .report import render_failure, summary_line
+    limits = _limits_from(ns.limit)
+    paths = certificate_paths(ns.paths) if ns.paths else bundled_certificates()
+    if not paths:
+        raise UsageError("no certificates (*.qcert) found")
+    start = time.perf_counter()
+    reports = []
+    for path in paths:
+        report = check_file(path, limits, keep_going=ns.every_failure)
+        reports.append(report)
+        for f in report.failures:
+            print(render_failure(report, f), file=out)
+        if ns.list_each:
+            status = "verified" if report.ok else "not verified"
+            print(f"{report.name}: {status} ({report.checked} claims and steps)", file=out)
+    print(summary_line(reports, time.perf_counter() - start), file=out)
+    return max((r.exit_code for r in reports), default=EXIT_OK)
+
+
+def _cmd_derive(ns, out) -> int:
+    from .derive import derive
+    text = derive(ns.expression)
+    if ns.output:
+        with open(ns.output, "w", encoding="utf-8") as fh:
+            fh.write(text)
+    else:
+        out.write(text)
+    return EXIT_OK
+
+
 def _parser() -> argparse.ArgumentParser:
     p = argparse.ArgumentParser(prog="quasicert", description=(
         "Replays certificates about Dedekind-type sums, Bernoulli numbers and restricted "
-        "partition functions with exact arithmetic, and points at the first wrong step."))
+        "partition functions with exact arithmetic, and points at the first wrong step."),
+        epilog="exit status: 0 all verified, 1 a claim or step is wrong, 2 unreadable input, "
+               "a syntax error, a usage error or a limit reached")
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
+    c = sub.add_parser("check", help="replay certificates (default: the bundled ones)")
+    c.add_argument("paths", nargs="*", metavar="PATH", help="*.qcert files, or folders to search")
+    c.add_argument("--every-failure", action="store_true",
+                   help="go on past the first failure and list every failing step")
+    c.add_argument("--list-each", action="store_true", help="print one verdict line per file")
+    c.add_argument("--limit", action="append", metavar="NAME=N", default=[],
+                   help="raise or lower a budget, e.g. --limit terms=10000000")
     sub.add_parser("eval", help="print the exact value of expressions", add_help=False)
+    d = sub.add_parser("derive", help="write a certificate for a value, e.g. \"dedekind(5, 17)\"")
+    d.add_argument("expression")
+    d.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
     sub.add_parser("functions", help="list the functions of the language")
+    sub.add_parser("rules", help="list the rules a step may cite")
     return p
 
 
@@ -110,10 +188,21 @@ def main(argv: Sequence[str] | None = None, out=None, err=None) -> int:
     try:
         if argv and argv[0] == "eval":
             return _cmd_eval(argv[1:], out, err)
-        ns, rest = _parser().parse_known_args(argv)
+        parser = _parser()
+        ns = parser.parse_args(argv)
+        if ns.command == "check":
+            return _cmd_check(ns, out, err)
+        if ns.command == "derive":
+            try:
+                return _cmd_derive(ns, out)
+            except CertificateError as e:
+                _print_error(e, ns.expression, "expression", err)
+                return EXIT_ERROR
         if ns.command == "functions":
             return _cmd_functions(out)
-        _parser().print_help(file=err)
+        if ns.command == "rules":
+            return _cmd_rules(out)
+        parser.print_help(file=err)
         return EXIT_ERROR
     except CertificateError as e:
         print(f"quasicert: {e.message}", file=err)

@@ -27,8 +27,10 @@ class Limits:
     list_length: int = 1_000
     #: digits of one integer literal in the text
     literal_digits: int = 200_000
-    #: nesting depth of an expression (parentheses, calls, operators)
-    nesting: int = 400
+    #: nesting depth of an expression (calls and operators inside one another)
+    nesting: int = 200
+    #: size of one certificate file
+    file_bytes: int = 64 * 1024 * 1024
 
     def require(self, name: str, needed: int, what: str) -> None:
         """Refuse when `needed` exceeds the limit called `name`."""
@@ -52,7 +54,7 @@ class Limits:
 
 _UNITS = {"integer_bits": " bits", "terms": " steps", "unfold_terms": " terms",
           "bernoulli_index": "", "list_length": " entries", "literal_digits": " digits",
-          "nesting": " levels"}
+          "nesting": " levels", "file_bytes": " bytes"}
 
 
 def _short(n: int) -> str:

@@ -1,0 +1,310 @@
+"""Replaying a certificate statement by statement.
+
+This module walks the statements, keeps the names and the verified
+equalities, asks the kernel for each judgement and writes what it finds into
+a Report.  The judgements themselves are ``kernel``'s; the words are here.
+"""
+from __future__ import annotations
+
+import difflib
+import time
+from fractions import Fraction
+from pathlib import Path
+
+from . import statements as st
+from .errors import BudgetExceeded, CertificateError, SyntaxProblem
+from .evaluation import Evaluator
+from .functions import REGISTRY
+from .kernel import check_step, compare, congruent, known_rule, nf_value
+from .limits import DEFAULT_LIMITS, Limits
+from .normal import Normaliser, atoms, sub, text as nf_text
+from .numbers import value_text
+from .parsing import parse_certificate
+from .report import Failure, Report
+from .rules import RULES, WHOLE_LINE_RULES
+
+__all__ = ["check_text", "check_file", "check_certificate"]
+
+_RELATION_WORDS = {"=": "=", "!=": "!=", "<": "<", "<=": "<=", ">": ">", ">=": ">="}
+
+
+class _Stop(Exception):
+    """Raised to end a replay at the first failure."""
+
+
+def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
+               keep_going: bool = False) -> Report:
+    """Check a certificate given as text; never raises for anything the text contains."""
+    start = time.perf_counter()
+    report = Report(name=name, text=text)
+    try:
+        cert = parse_certificate(text, name, limits)
+    except CertificateError as e:
+        report.failures.append(_from_error(e, exit_code=2))
+        report.seconds = time.perf_counter() - start
+        return report
+    _Replay(cert, report, limits, keep_going).run()
+    report.seconds = time.perf_counter() - start
+    return report
+
+
+def check_certificate(cert: st.Certificate, limits: Limits = DEFAULT_LIMITS,
+                      keep_going: bool = False) -> Report:
+    report = Report(name=cert.name, text=cert.text)
+    start = time.perf_counter()
+    _Replay(cert, report, limits, keep_going).run()
+    report.seconds = time.perf_counter() - start
+    return report
+
+
+def read_certificate_text(path: Path, limits: Limits = DEFAULT_LIMITS) -> str:
+    """The file's text, or a CertificateError saying why it cannot be read."""
+    try:
+        size = path.stat().st_size
+    except OSError as e:
+        raise CertificateError(f"cannot read the file: {e.strerror}") from None
+    limit = limits.file_bytes
+    if size > limit:
+        raise BudgetExceeded(f"the file has {size} bytes, over the limit file-bytes = {limit} "
+                             "(raise it with --limit file-bytes=N)")
+    try:
+        data = path.read_bytes()
+    except OSError as e:
+        raise CertificateError(f"cannot read the file: {e.strerror}") from None
+    try:
+        return data.decode("utf-8")
+    except UnicodeDecodeError as e:
+        line = data.count(b"\n", 0, e.start) + 1
+        column = e.start - (data.rfind(b"\n", 0, e.start) + 1) + 1
+        raise CertificateError(f"the file is not UTF-8 text (byte 0x{data[e.start]:02x} here)",
+                               line, column) from None
+
+
+def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False) -> Report:
+    """Check one certificate file."""
+    path = Path(path)
+    try:
+        text = read_certificate_text(path, limits)
+    except CertificateError as e:
+        report = Report(name=str(path))
+        report.failures.append(_from_error(e, exit_code=2))
+        return report
+    return check_text(text, str(path), limits, keep_going)
+
+
+def _from_error(e: CertificateError, exit_code: int | None = None, source_note=None) -> Failure:
+    if exit_code is None:
+        exit_code = 2 if isinstance(e, (BudgetExceeded, SyntaxProblem)) else 1
+    return Failure(e.line, e.column, e.message, kind=e.kind, end_column=e.end_column,
+                   exit_code=exit_code, source_note=source_note)
+
+
+class _Replay:
+    def __init__(self, cert: st.Certificate, report: Report, limits: Limits, keep_going: bool):
+        self.cert = cert
+        self.report = report
+        self.limits = limits
+        self.keep_going = keep_going
+        self.evaluator = Evaluator({}, limits)
+        self.normaliser = Normaliser(self.evaluator)
+        self.facts: dict = {}          # label -> (lhs NF, rhs NF), verified equalities only
+        self.labels: dict = {}         # label -> line where it was given
+        self.source_note = None
+
+    # -- driving -------------------------------------------------------------
+    def run(self):
+        try:
+            for stmt in self.cert.statements:
+                try:
+                    getattr(self, "_" + type(stmt).__name__)(stmt)
+                except _Stop:
+                    raise
+                except CertificateError as e:
+                    self._fail(_from_error(e.at(stmt), source_note=self.source_note))
+        except _Stop:
+            pass
+
+    def _fail(self, failure: Failure):
+        if failure.source_note is None:
+            failure.source_note = self.source_note
+        self.report.failures.append(failure)
+        if not self.keep_going:
+            raise _Stop()
+
+    def _ok(self):
+        self.report.checked += 1
+
+    def _value(self, node) -> Fraction:
+        return self.evaluator.number(node)
+
+    def _call(self, name, args):
+        return self.evaluator.call(name, args)
+
+    def _claim_label(self, label, stmt) -> bool:
+        if label is None:
+            return True
+        if label in self.labels:
+            self._fail(Failure(stmt.pos.line, stmt.pos.column,
+                               f"the label '{label}' is already used at line {self.labels[label]}",
+                               kind="error"))
+            return False
+        self.labels[label] = stmt.pos.line
+        return True
+
+    # -- statements ----------------------------------------------------------
+    def _Title(self, stmt):
+        if self.report.title is None:
+            self.report.title = stmt.text
+
+    def _Source(self, stmt):
+        self.source_note = stmt.text
+
+    def _Let(self, stmt):
+        if stmt.name in self.evaluator.env:
+            self._fail(Failure(stmt.pos.line, stmt.pos.column,
+                               f"'{stmt.name}' already has a value; names are given once", kind="error"))
+            return
+        if stmt.name in REGISTRY:
+            self._fail(Failure(stmt.pos.line, stmt.pos.column,
+                               f"'{stmt.name}' is the name of a function and cannot be given a value",
+                               kind="error"))
+            return
+        self.evaluator.env[stmt.name] = self.evaluator.value(stmt.expr)
+
+    def _Claim(self, stmt):
+        if not self._claim_label(stmt.label, stmt):
+            return
+        lhs = self._value(stmt.lhs)
+        rhs = self._value(stmt.rhs)
+        if compare(lhs, stmt.relation, rhs):
+            self._ok()
+            if stmt.relation == "=" and stmt.label:
+                self._remember_equality(stmt.label, stmt.lhs, stmt.rhs)
+            return
+        name = f"claim '{stmt.label}'" if stmt.label else "the claim"
+        rel = stmt.relation
+        if rel == "=":
+            details = [f"left side:  {value_text(lhs)}",
+                       f"right side: {value_text(rhs)}   (claimed)",
+                       f"difference (right - left): {value_text(rhs - lhs)}"]
+            message = f"{name} is false: the two sides differ"
+        else:
+            details = [f"left side:  {value_text(lhs)}", f"right side: {value_text(rhs)}"]
+            message = f"{name} is false: left {rel} right does not hold"
+        pos = stmt.rhs.pos
+        self._fail(Failure(pos.line, pos.column, message, details, kind="failed",
+                           end_column=pos.end_column if pos.end_line == pos.line else None,
+                           claimed=rhs, exact=lhs))
+
+    def _Congruence(self, stmt):
+        if not self._claim_label(stmt.label, stmt):
+            return
+        lhs = self._value(stmt.lhs)
+        rhs = self._value(stmt.rhs)
+        m = self._value(stmt.modulus)
+        if m == 0 or m.denominator != 1:
+            raise CertificateError(f"the modulus must be a nonzero integer, not {value_text(m)}").at(stmt.modulus)
+        if congruent(lhs, rhs, m):
+            self._ok()
+            return
+        name = f"claim '{stmt.label}'" if stmt.label else "the congruence"
+        pos = stmt.rhs.pos
+        q = (lhs - rhs) / m
+        self._fail(Failure(pos.line, pos.column, f"{name} is false: the sides are not congruent modulo {value_text(m)}",
+                           [f"left side:  {value_text(lhs)}", f"right side: {value_text(rhs)}",
+                            f"(left - right)/{value_text(m)} = {value_text(q)}, not an integer"],
+                           end_column=pos.end_column if pos.end_line == pos.line else None,
+                           claimed=rhs, exact=lhs))
+
+    def _remember_equality(self, label, lhs_node, rhs_node):
+        try:
+            self.facts[label] = (self.normaliser.normal(lhs_node), self.normaliser.normal(rhs_node))
+        except CertificateError:
+            pass   # true, but not in a form a step can use
+
+    def _Chain(self, stmt):
+        if not self._claim_label(stmt.label, stmt):
+            return
+        prev_nf = self.normaliser.normal(stmt.start)
+        prev_value = nf_value(prev_nf, self._call)
+        start_nf, all_ok = prev_nf, True
+        for index, step in enumerate(stmt.steps, 1):
+            ok, next_nf, next_value = self._step(stmt, index, step, prev_nf, prev_value)
+            all_ok = all_ok and ok
+            if next_nf is None:          # the line itself could not be read as a normal form
+                return
+            prev_nf, prev_value = next_nf, next_value
+        if all_ok and stmt.label:
+            self.facts[stmt.label] = (start_nf, prev_nf)
+
+    def _step(self, chain, index, step, prev_nf, prev_value):
+        where = f"step {index} of the chain at line {chain.pos.line}"
+        for ref in step.rules:
+            if not known_rule(ref.name):
+                near = difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
+                hint = f" (did you mean {near[0]}?)" if near else ""
+                self._fail(Failure(ref.pos.line, ref.pos.column, f"{where}: unknown rule '{ref.name}'{hint}",
+                                   ["`quasicert rules` lists the rules"], kind="error",
+                                   end_column=ref.pos.end_column))
+                return False, None, None
+        self.normaliser.positions = {}
+        next_nf = self.normaliser.normal(step.expr)
+        positions = self.normaliser.positions
+        next_value = nf_value(next_nf, self._call)
+        rules = [(r.name, r.label) for r in step.rules]
+        verdict = check_step(prev_nf, next_nf, rules, self._call, self.facts, self.limits)
+        values_ok = next_value == prev_value
+        if verdict.rule_ok and values_ok:
+            self._ok()
+            return True, next_nf, next_value
+        self._fail(self._step_failure(where, step, rules, verdict, values_ok, prev_nf, next_nf,
+                                      prev_value, next_value, positions))
+        return False, next_nf, next_value
+
+    def _step_failure(self, where, step, rules, verdict, values_ok, prev_nf, next_nf,
+                      prev_value, next_value, positions) -> Failure:
+        cited = ", ".join(n if n != "claim" else f"claim {l}" for n, l in rules)
+        pos = step.expr.pos
+        line, column, end = pos.line, pos.column, pos.end_column if pos.end_line == pos.line else None
+        details = []
+        if not verdict.rule_ok:
+            message = f"{where} does not follow by {cited}"
+            if verdict.problem:
+                details.append(verdict.problem)
+            for atom, reason in verdict.refusals[:4]:
+                from .normal import atom_text
+                target = f" to {atom_text(atom)}" if atom else ""
+                details.append(f"{cited} cannot be applied{target}: {reason}")
+            closest = _closest(verdict.candidates, next_nf)
+            if closest is not None:
+                details.append(f"{cited} gives: {_short(nf_text(closest))}")
+                wrong = [a for a in atoms(next_nf) - atoms(closest) if a in positions]
+                if wrong:
+                    p = positions[sorted(wrong, key=lambda a: (positions[a].line, positions[a].column))[0]]
+                    line, column = p.line, p.column
+                    end = p.end_column if p.end_line == p.line else None
+            if values_ok:
+                details.append(f"value check: passed (both lines are {_short(value_text(prev_value))})")
+            else:
+                details.append("value check: failed too")
+        else:
+            message = f"{where}: the rule gives this line but the values differ (a checker bug: please report it)"
+        if not values_ok:
+            details += [f"exact value (previous line): {_short(value_text(prev_value))}",
+                        f"claimed value (this line):   {_short(value_text(next_value))}",
+                        f"difference (claimed - exact): {_short(value_text(next_value - prev_value))}"]
+        return Failure(line, column, message, details, kind="failed", end_column=end,
+                       claimed=next_value, exact=prev_value)
+
+
+def _closest(candidates, target):
+    best, score = None, None
+    for c in candidates:
+        s = len(set(c.items()) ^ set(target.items()))
+        if score is None or s < score:
+            best, score = c, s
+    return best
+
+
+def _short(s: str, width: int = 300) -> str:
+    return s if len(s) <= width else s[: width // 2] + f" ...({len(s) - width} characters)... " + s[-width // 2:]

@@ -1,0 +1,175 @@
+"""The trusted kernel: the only code that says "verified".
+
+It decides three kinds of judgement, on normal forms and exact values that it
+is handed (parsing, reporting and file handling live elsewhere):
+
+- a relation between two exact values (=, <, <=, >, >=, !=) or a congruence;
+- a chain step, checked twice: (1) the cited rules, applied to calls of the
+  previous line, give the next line as a normal form; (2) the two lines have
+  the same exact value;
+- the use of an earlier verified equality: previous - next = c (lhs - rhs).
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from fractions import Fraction
+
+from .errors import CertificateError, RuleRefused
+from .normal import NF, atom_text, atoms, constant, scale, sub, substitute
+from .rules import RULES, WHOLE_LINE_RULES
+
+__all__ = ["compare", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule"]
+
+_MAX_CANDIDATES = 256
+
+
+def compare(lhs: Fraction, relation: str, rhs: Fraction) -> bool:
+    """The truth of `lhs relation rhs` for exact values."""
+    if relation == "=":
+        return lhs == rhs
+    if relation == "!=":
+        return lhs != rhs
+    if relation == "<":
+        return lhs < rhs
+    if relation == "<=":
+        return lhs <= rhs
+    if relation == ">":
+        return lhs > rhs
+    if relation == ">=":
+        return lhs >= rhs
+    raise ValueError(relation)
+
+
+def congruent(lhs: Fraction, rhs: Fraction, modulus: Fraction) -> bool:
+    """lhs = rhs (mod m): (lhs - rhs)/m is an integer.  m must be a nonzero integer."""
+    if modulus == 0 or modulus.denominator != 1:
+        raise ValueError("modulus")
+    return ((lhs - rhs) / modulus).denominator == 1
+
+
+def nf_value(x: NF, call) -> Fraction:
+    """The exact value of a normal form; `call(name, args)` gives an atom's value."""
+    total = Fraction(0)
+    for m, c in x.items():
+        term = c
+        for (name, args), e in m:
+            v = call(name, args)
+            if isinstance(v, tuple):
+                raise CertificateError(f"{name} gives a list where a number is needed")
+            if v == 0 and e < 0:
+                raise CertificateError(f"{atom_text((name, args))} is 0 and stands in a denominator")
+            term *= v ** e
+        total += term
+    return total
+
+
+def known_rule(name: str) -> bool:
+    return name in RULES or name in WHOLE_LINE_RULES
+
+
+@dataclass
+class StepVerdict:
+    rule_ok: bool
+    refusals: list = field(default_factory=list)     # (atom, reason) pairs
+    candidates: list = field(default_factory=list)   # what the rules could produce
+    problem: str = ""                                # a whole-line rule's reason
+
+
+def _apply_atom_rule(rule, x: NF, target_atoms: set, limits, refusals: list) -> list[NF]:
+    out = []
+    for atom in sorted(atoms(x), key=atom_text):
+        try:
+            replacements = rule.rewrite(atom, target_atoms, limits)
+        except RuleRefused as e:
+            refusals.append((atom, e.message))
+            continue
+        for r in replacements:
+            y = substitute(x, atom, r, limits.terms if limits else None)
+            if y is not None:
+                out.append(y)
+    return out
+
+
+def _apply_value(x: NF, target: NF, call, refusals: list) -> list[NF]:
+    gone = atoms(x) - atoms(target)
+    if not gone:
+        refusals.append((None, "value replaces function calls by their values, but every call of "
+                               "the previous line is still in the next"))
+        return []
+    y = x
+    for atom in sorted(gone, key=atom_text):
+        v = call(*atom)
+        if isinstance(v, tuple):
+            refusals.append((atom, "this call gives a list, not a number"))
+            return []
+        y = substitute(y, atom, constant(v))
+        if y is None:
+            refusals.append((atom, "its value 0 would stand in a denominator"))
+            return []
+    return [y]
+
+
+def _apply_claim(x: NF, target: NF, fact) -> tuple[bool, str]:
+    lhs, rhs = fact
+    diff = sub(x, target)
+    claim = sub(lhs, rhs)
+    if not diff:
+        return False, "this step does not change the previous line, so it does not use the claim"
+    if not claim:
+        return False, "the claim is the identity 0 = 0 and cannot change a line"
+    m = next(iter(claim))
+    c = diff.get(m, Fraction(0)) / claim[m]
+    if c and scale(claim, c) == diff:
+        return True, ""
+    return False, ("the difference between the previous line and this one is not a multiple of "
+                   "(left side - right side) of the claim")
+
+
+def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits) -> StepVerdict:
+    """Judgement (1): do the cited rules, in order, turn `prev` into `nxt`?
+
+    `rules` is a list of (name, label) pairs; `facts` maps labels to verified
+    equalities (lhs NF, rhs NF); `call` evaluates an atom exactly.
+    """
+    verdict = StepVerdict(False)
+    current = [prev]
+    target_atoms = atoms(nxt)
+    for index, (name, label) in enumerate(rules):
+        if name == "claim":
+            if index != len(rules) - 1:
+                verdict.problem = "`claim LABEL` must be the last rule of a step"
+                return verdict
+            if label not in facts:
+                verdict.problem = f"there is no verified equality labelled '{label}' above this step"
+                return verdict
+            for x in current:
+                ok, why = _apply_claim(x, nxt, facts[label])
+                if ok:
+                    verdict.rule_ok = True
+                    return verdict
+                verdict.problem = why
+            return verdict
+        produced = []
+        for x in current:
+            if name == "arithmetic":
+                produced.append(x)
+            elif name == "value":
+                produced.extend(_apply_value(x, nxt, call, verdict.refusals))
+            else:
+                produced.extend(_apply_atom_rule(RULES[name], x, target_atoms, limits, verdict.refusals))
+        current = _unique(produced)[:_MAX_CANDIDATES]
+        if not current:
+            return verdict
+    verdict.candidates = current
+    verdict.rule_ok = any(c == nxt for c in current)
+    return verdict
+
+
+def _unique(xs: list) -> list:
+    seen, out = set(), []
+    for x in xs:
+        key = frozenset(x.items())
+        if key not in seen:
+            seen.add(key)
+            out.append(x)
+    return out

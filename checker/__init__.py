@@ -2,6 +2,8 @@
 
 Public surface:
 
+- ``check_text(text, name)`` and ``check_file(path)``: replay a certificate,
+  returning a ``Report`` (``.ok``, ``.checked``, ``.failure``).
 - ``evaluate(text)``: the exact value of an expression, a Fraction.
 - ``functions``: the kernel functions under their names in the language,
   plain callables on ints and Fractions.
@@ -10,11 +12,13 @@ Public surface:
 """
 from . import functions
 from .errors import BudgetExceeded, CertificateError, DomainError, RuleRefused, SyntaxProblem, UsageError
+from .checking import check_file, check_text
 from .evaluation import evaluate, evaluate_value
+from .report import Failure, Report
 from .limits import DEFAULT_LIMITS, Limits
 
 __all__ = [
-    "evaluate", "evaluate_value", "functions",
+    "evaluate", "evaluate_value", "functions", "check_text", "check_file", "Report", "Failure",
     "CertificateError", "SyntaxProblem", "DomainError", "BudgetExceeded", "RuleRefused", "UsageError",
     "Limits", "DEFAULT_LIMITS",
 ]

@@ -12,7 +12,7 @@ from fractions import Fraction
 from pathlib import Path
 
 from . import statements as st
-from .errors import BudgetExceeded, CertificateError, SyntaxProblem
+from .errors import BudgetExceeded, CertificateError, SyntaxProblem, UnreadableFile
 from .evaluation import Evaluator
 from .functions import REGISTRY
 from .kernel import check_step, compare, congruent, known_rule, nf_value
@@ -62,21 +62,21 @@ def read_certificate_text(path: Path, limits: Limits = DEFAULT_LIMITS) -> str:
     try:
         size = path.stat().st_size
     except OSError as e:
-        raise CertificateError(f"cannot read the file: {e.strerror}") from None
+        raise UnreadableFile(f"cannot read the file: {e.strerror}") from None
     limit = limits.file_bytes
     if size > limit:
-        raise BudgetExceeded(f"the file has {size} bytes, over the limit file-bytes = {limit} "
+        raise UnreadableFile(f"the file has {size} bytes, over the limit file-bytes = {limit} "
                              "(raise it with --limit file-bytes=N)")
     try:
         data = path.read_bytes()
     except OSError as e:
-        raise CertificateError(f"cannot read the file: {e.strerror}") from None
+        raise UnreadableFile(f"cannot read the file: {e.strerror}") from None
     try:
         return data.decode("utf-8")
     except UnicodeDecodeError as e:
         line = data.count(b"\n", 0, e.start) + 1
         column = e.start - (data.rfind(b"\n", 0, e.start) + 1) + 1
-        raise CertificateError(f"the file is not UTF-8 text (byte 0x{data[e.start]:02x} here)",
+        raise UnreadableFile(f"the file is not UTF-8 text (byte 0x{data[e.start]:02x} here)",
                                line, column) from None
 
 

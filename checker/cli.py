@@ -215,6 +215,9 @@ def main(argv: Sequence[str] | None = None, out=None, err=None) -> int:
     except KeyboardInterrupt:
         print("quasicert: interrupted", file=err)
         return 130
+    except Exception as e:  # a bug of ours: say so plainly instead of a traceback
+        print(f"quasicert: internal error, please report it: {type(e).__name__}: {e}", file=err)
+        return EXIT_ERROR
 
 
 def entry() -> None:

@@ -14,6 +14,7 @@ __all__ = [
     "DomainError",
     "BudgetExceeded",
     "RuleRefused",
+    "UnreadableFile",
     "UsageError",
 ]
 
@@ -93,6 +94,12 @@ class RuleRefused(CertificateError):
 
     kind = "rule refused"
     exit_code = 1
+
+
+class UnreadableFile(CertificateError):
+    """The file cannot be read as UTF-8 text, or is over the size limit."""
+
+    kind = "unreadable"
 
 
 class UsageError(CertificateError):

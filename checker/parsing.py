@@ -25,15 +25,16 @@ __all__ = ["parse_expression", "parse_certificate", "grammar_text", "resource_di
 
 
 def resource_dir(package: str, fallback: str) -> Path:
-    """Folder of a data package: inside the installed wheel, or the repository's own."""
-    try:
-        from importlib.resources import files
-        path = Path(str(files(package)))
-        if path.is_dir():
-            return path
-    except (ModuleNotFoundError, TypeError):
-        pass
-    return Path(__file__).resolve().parent.parent / fallback
+    """Folder of shipped data: inside the installed package, else the repository's own.
+
+    The wheel maps grammar/ and certificates/ to checker/grammar and
+    checker/certificates; a source checkout has them beside checker/.
+    """
+    here = Path(__file__).resolve().parent
+    installed = here / package.rsplit(".", 1)[-1]
+    if installed.is_dir():
+        return installed
+    return here.parent / fallback
 
 
 def grammar_text() -> str:

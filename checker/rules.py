@@ -88,9 +88,14 @@ def _reduce(atom, target, limits):
     name, args = atom
     if name == "dedekind":
         h, k = _dedekind_args(atom)
-        if 0 <= h < k:
-            _refuse(f"dedekind({h}, {k}) is already reduced (0 <= h < k)")
-        return [_call("dedekind", h % k, k)]
+        # h mod k, or any other h' = h (mod k) that the next line uses
+        choices = {x for x, y in _target_dedekind(target) if y == k and (x - h) % k == 0 and x != h}
+        if not 0 <= h < k:
+            choices.add(h % k)
+        if not choices:
+            _refuse(f"dedekind({h}, {k}) is already reduced (0 <= h < k), and the next line has no "
+                    f"dedekind(h', {k}) with h' = {h} (mod {k})")
+        return [_call("dedekind", x, k) for x in sorted(choices)]
     if name == "generalized_dedekind":
         p, h, k = _integers(atom, ("order", "h", "k"))
         if k < 1:
@@ -268,7 +273,7 @@ def _unfold(atom, target, limits):
 
 
 RULES: dict[str, Rule] = {r.name: r for r in [
-    Rule("reduce", "s(h, k) = s(h mod k, k); also s_p(h, k) and s_n(A; b) modulo k or b",
+    Rule("reduce", "s(h, k) = s(h', k) for h' = h (mod k), by default h mod k; also s_p(h, k), and s_n(A; b) modulo b",
          "k >= 1 (b >= 1)", "definition (periodicity of the sawtooth)", _reduce),
     Rule("reciprocity", "s(h, k) = -1/4 + (h/k + k/h + 1/(hk))/12 - s(k, h); Apostol's law for s_p, p odd",
          "h >= 1, k >= 1, gcd(h, k) = 1", "Dedekind (1892); Apostol, Duke Math. J. 17 (1950)", _reciprocity),

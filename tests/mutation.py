@@ -1,0 +1,106 @@
+"""Mutants of a certificate: one number or one sign changed inside a claim or step.
+
+Shared by the mutation tests.  A mutant is (text, unit, description) where
+unit names the statement or step it falls in and the last line at which the
+checker must have stopped.
+"""
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass
+
+from checker import statements as st
+from checker.parsing import parse_certificate
+
+
+@dataclass(frozen=True)
+class Unit:
+    kind: str          # claim, congruence, start, step
+    first_line: int
+    last_line: int     # the checker must fail at or before this line
+    relation: str = "="
+
+
+@dataclass(frozen=True)
+class Mutant:
+    text: str
+    unit: Unit
+    line: int
+    column: int
+    what: str
+
+
+def _units(text: str) -> list[Unit]:
+    units = []
+    for s in parse_certificate(text).statements:
+        if isinstance(s, st.Claim):
+            units.append(Unit("claim", s.pos.line, s.pos.end_line, s.relation))
+        elif isinstance(s, st.Congruence):
+            units.append(Unit("congruence", s.pos.line, s.pos.end_line))
+        elif isinstance(s, st.Chain):
+            first = s.steps[0]
+            units.append(Unit("start", s.pos.line, first.pos.end_line))
+            for step in s.steps:
+                units.append(Unit("step", step.pos.line, step.pos.end_line))
+    return units
+
+
+def _code_spans(line: str):
+    """Column ranges of a line outside comments and quoted texts."""
+    out, i, start, quoted = [], 0, 0, False
+    while i < len(line):
+        ch = line[i]
+        if ch == '"':
+            if not quoted:
+                out.append((start, i))
+            quoted = not quoted
+            start = i + 1
+        elif ch == "#" and not quoted:
+            out.append((start, i))
+            return out
+        i += 1
+    if not quoted:
+        out.append((start, len(line)))
+    return out
+
+
+_NUMBER = re.compile(r"(?<![A-Za-z_0-9])\d+")
+
+
+def mutants(text: str, deltas=(1, -1)):
+    lines = text.split("\n")
+    by_line = {}
+    for unit in _units(text):
+        for ln in range(unit.first_line, unit.last_line + 1):
+            by_line.setdefault(ln, unit) if unit.kind != "start" else by_line.setdefault(ln, unit)
+    # a chain's start line belongs to the start unit; its step lines to their steps
+    for unit in _units(text):
+        if unit.kind in ("step", "claim", "congruence"):
+            for ln in range(unit.first_line, unit.last_line + 1):
+                by_line[ln] = unit
+        elif unit.kind == "start":
+            by_line[unit.first_line] = unit
+    for ln, unit in sorted(by_line.items()):
+        src = lines[ln - 1]
+        for lo, hi in _code_spans(src):
+            segment = src[lo:hi]
+            for m in _NUMBER.finditer(segment):
+                n = int(m.group())
+                for d in deltas:
+                    if n + d < 0:
+                        continue
+                    col = lo + m.start()
+                    new = src[:col] + str(n + d) + src[lo + m.end():]
+                    yield Mutant(_replace_line(lines, ln, new), unit, ln, col + 1, f"{n} -> {n + d}")
+            for i, ch in enumerate(segment):
+                if ch in "+-":
+                    col = lo + i
+                    flipped = "-" if ch == "+" else "+"
+                    new = src[:col] + flipped + src[col + 1:]
+                    yield Mutant(_replace_line(lines, ln, new), unit, ln, col + 1, f"'{ch}' -> '{flipped}'")
+
+
+def _replace_line(lines, ln, new):
+    out = list(lines)
+    out[ln - 1] = new
+    return "\n".join(out)

@@ -1,0 +1,108 @@
+"""Mutation testing: one changed number or sign in a bundled certificate is caught at that step.
+
+A mutant "survives" when the changed certificate still verifies.  A survivor
+is acceptable only when it is provably equivalent or still true, and each is
+justified by a check independent of the fast kernel:
+
+- an inequality or congruence claim that still holds after the change;
+- an equality claim that still holds, re-checked with the slow reference
+  implementations of tests/reference.py (definitions, recursions, scans);
+- a step or chain start whose changed line has the same normal form as the
+  original (the same polynomial in the function calls: a zero term, say) or,
+  for a chain start, the same value by the reference implementations.
+
+Everything else must be rejected at the mutated claim or step, or earlier.
+"""
+from checker import check_text
+from checker.cli import bundled_certificates
+from checker.evaluation import Evaluator
+from checker.normal import Normaliser
+from checker.parsing import parse_expression
+from mutation import mutants
+from reference import reference_functions
+
+
+def _statement_text(text, line):
+    return text.split("\n")[line - 1]
+
+
+def _claim_sides(line_text):
+    body = line_text.split("#")[0].strip()
+    if body.startswith("claim "):
+        body = body[len("claim "):]
+    if ":" in body.split("(")[0]:
+        body = body.split(":", 1)[1]
+    return body
+
+
+def _reference_true(claim_text: str, whole_text: str) -> bool:
+    """The claim alone, with the certificate's named values, checked by the slow references."""
+    lets = [ln for ln in whole_text.split("\n") if ln.startswith("let ")]
+    with reference_functions():
+        return check_text("\n".join(lets) + "\nclaim " + claim_text + "\n", limits=_LIMITS).ok
+
+
+def _same_line(original: str, mutated: str) -> bool:
+    def nf(s):
+        expr = s.split("#")[0].strip()
+        if expr.startswith("="):
+            expr = expr[1:].rsplit(" by ", 1)[0]
+        elif expr.startswith("chain "):
+            expr = expr[len("chain "):]
+            if ":" in expr.split("(")[0]:
+                expr = expr.split(":", 1)[1]
+        return Normaliser(Evaluator()).normal(parse_expression(expr))
+    try:
+        return nf(original) == nf(mutated)
+    except Exception:
+        return False
+
+
+from checker.limits import Limits  # noqa: E402
+_LIMITS = Limits(terms=10**7)
+
+
+def justify(m, original_text):
+    line = _statement_text(m.text, m.line)
+    if m.unit.kind == "claim" and m.unit.relation != "=":
+        return "an inequality that still holds after the change"
+    if m.unit.kind == "congruence":
+        return "a congruence that still holds after the change"
+    if m.unit.kind == "claim" and _reference_true(_claim_sides(line), m.text):
+        return "an equality that still holds (re-checked with the reference implementations)"
+    if m.unit.kind in ("step", "start") and _same_line(_statement_text(original_text, m.line), line):
+        return "the changed line is the same polynomial in the function calls"
+    if m.unit.kind == "start":
+        start = _statement_text(original_text, m.line)
+        with reference_functions():
+            a = Evaluator().number(parse_expression(start.split(":", 1)[-1].replace("chain ", "", 1)))
+            b = Evaluator().number(parse_expression(line.split(":", 1)[-1].replace("chain ", "", 1)))
+        if a == b:
+            return "the changed chain start has the same value (reference implementations)"
+    return None
+
+
+def test_mutants_of_bundled_certificates_are_rejected_at_their_step():
+    made = killed = 0
+    survivors, late = [], []
+    for path in bundled_certificates():
+        text = path.read_text()
+        for m in mutants(text):
+            made += 1
+            report = check_text(m.text, path.name)
+            if report.ok:
+                survivors.append((path.name, m.line, m.column, m.what, justify(m, text)))
+                continue
+            killed += 1
+            f = report.failure
+            if f.line is None or f.line > m.unit.last_line:
+                late.append((path.name, m.line, m.column, m.what, f.line, f.message))
+    unexplained = [s for s in survivors if s[4] is None]
+    print(f"\nmutants made {made}, rejected {killed} ({100 * killed / made:.1f}%), "
+          f"survivors {len(survivors)}, unexplained {len(unexplained)}")
+    for s in survivors:
+        print("  survivor:", *s)
+    assert made > 500
+    assert not unexplained, unexplained
+    assert not late, late
+    assert killed / made >= 0.97

@@ -32,6 +32,33 @@ class _Stop(Exception):
     """Raised to end a replay at the first failure."""
 
 
+class _Facts:
+    """Verified equalities by label; a claim's normal forms are made only when a step uses it."""
+
+    def __init__(self, normaliser):
+        self.normaliser = normaliser
+        self.ready: dict = {}
+        self.pending: dict = {}
+
+    def add_nodes(self, label, lhs, rhs):
+        self.pending[label] = (lhs, rhs)
+
+    def add_normal_forms(self, label, lhs_nf, rhs_nf):
+        self.ready[label] = (lhs_nf, rhs_nf)
+
+    def __contains__(self, label):
+        if label in self.pending:
+            lhs, rhs = self.pending.pop(label)
+            try:
+                self.ready[label] = (self.normaliser.normal(lhs), self.normaliser.normal(rhs))
+            except CertificateError:
+                pass     # true, but not in a form a step can use
+        return label in self.ready
+
+    def __getitem__(self, label):
+        return self.ready[label]
+
+
 def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
                keep_going: bool = False) -> Report:
     """Check a certificate given as text; never raises for anything the text contains."""
@@ -107,7 +134,7 @@ class _Replay:
         self.keep_going = keep_going
         self.evaluator = Evaluator({}, limits)
         self.normaliser = Normaliser(self.evaluator)
-        self.facts: dict = {}          # label -> (lhs NF, rhs NF), verified equalities only
+        self.facts = _Facts(self.normaliser)   # verified equalities only
         self.labels: dict = {}         # label -> line where it was given
         self.source_note = None
 
@@ -217,10 +244,7 @@ class _Replay:
                            claimed=rhs, exact=lhs))
 
     def _remember_equality(self, label, lhs_node, rhs_node):
-        try:
-            self.facts[label] = (self.normaliser.normal(lhs_node), self.normaliser.normal(rhs_node))
-        except CertificateError:
-            pass   # true, but not in a form a step can use
+        self.facts.add_nodes(label, lhs_node, rhs_node)
 
     def _Chain(self, stmt):
         if not self._claim_label(stmt.label, stmt):
@@ -235,7 +259,7 @@ class _Replay:
                 return
             prev_nf, prev_value = next_nf, next_value
         if all_ok and stmt.label:
-            self.facts[stmt.label] = (start_nf, prev_nf)
+            self.facts.add_normal_forms(stmt.label, start_nf, prev_nf)
 
     def _step(self, chain, index, step, prev_nf, prev_value):
         where = f"step {index} of the chain at line {chain.pos.line}"

@@ -11,7 +11,6 @@ from __future__ import annotations
 from fractions import Fraction
 from math import gcd
 
-from .dedekind import reciprocity_term
 from .errors import DomainError
 from .evaluation import Evaluator
 from .expressions import Call
@@ -35,22 +34,35 @@ def derive_dedekind(h: int, k: int, label: str = "derived") -> str:
     out = [f'title "s({value_text(h)}, {value_text(k)}) by reciprocity and reduction"',
            "# written by quasicert derive; check it with: quasicert check FILE",
            f"chain {label}: dedekind({value_text(h)}, {value_text(k)})"]
-    c, sign = Fraction(0), 1
     g = gcd(h, k)
     if g > 1:
         h, k = h // g, k // g
-        out.append(f"  = {_line(c, sign, h, k)}    by common_factor")
+        out.append(f"  = dedekind({value_text(h)}, {value_text(k)})    by common_factor")
     if not 0 <= h < k:
         h %= k
-        out.append(f"  = {_line(c, sign, h, k)}    by reduce")
-    while h:
-        # s(h, k) = R(h, k) - s(k, h) = R(h, k) - s(k mod h, h)
-        c += sign * reciprocity_term(h, k)
+        out.append(f"  = dedekind({value_text(h)}, {value_text(k)})    by reduce")
+    # the pairs met by reciprocity followed by reduce: (h, k) -> (k mod h, h)
+    chain = [(h, k)]
+    while chain[-1][0]:
+        a, b = chain[-1]
+        chain.append((b % a, a))
+    # T(a, b) = 12 b s(a, b), from the bottom (0, 1) up: reciprocity gives
+    # a T(a, b) = a^2 + b^2 + 1 - 3ab - b T(b mod a, a), an exact integer division
+    twelve = {}
+    below = 0
+    for a, b in reversed(chain):
+        below = 0 if a == 0 else (a * a + b * b + 1 - 3 * a * b - b * below) // a
+        twelve[(a, b)] = below
+    k0 = chain[0][1]
+    total = twelve[chain[0]]                      # 12 k0 s(h, k)
+    sign = 1
+    for a, b in chain[1:]:
         sign = -sign
-        h, k = k % h, h
-        out.append(f"  = {_line(c, sign, h, k)}    by reciprocity, reduce")
-    # now h = 0 and k = 1: s(0, 1) = 0
-    out.append(f"  = {value_text(c)}    by value")
+        # the line c + sign * s(a, b) keeps the value: c = s(h, k) - sign * s(a, b)
+        c = Fraction(total * b - sign * k0 * twelve[(a, b)], 12 * k0 * b)
+        out.append(f"  = {_line(c, sign, a, b)}    by reciprocity, reduce")
+    value = Fraction(total, 12 * k0)
+    out.append(f"  = {value_text(value)}    by value")
     return "\n".join(out) + "\n"
 
 

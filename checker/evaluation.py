@@ -93,6 +93,15 @@ class Evaluator:
         return total
 
     def _Product(self, node):
+        factors = node.factors
+        if len(factors) == 2 and type(factors[0][1]) is ex.Num and type(factors[1][1]) is ex.Num:
+            # the common literal p/q or p*q: one Fraction instead of three
+            a, (divide, b) = factors[0][1].value, factors[1]
+            if not divide:
+                return Fraction(a * b.value)
+            if b.value == 0:
+                raise DomainError("division by zero: this divisor is 0").at(b)
+            return Fraction(a, b.value)
         acc = Fraction(1)
         for divide, factor in node.factors:
             v = self.number(factor)

@@ -1,7 +1,7 @@
 """Reading text into expression trees and certificates.
 
 The grammar lives in ``grammar/*.lark`` (shipped inside the package as
-``checker.grammar``).  Lark parses; a non-recursive Transformer only builds
+``checker.grammar``).  Lark parses; a Transformer run inside the parser only builds
 the dataclasses of ``expressions`` and ``statements``; nothing here checks
 mathematics.  Every Lark error becomes a ``SyntaxProblem`` whose message names
 what was expected in words, at a 1-based line and column.
@@ -11,9 +11,8 @@ from __future__ import annotations
 from functools import lru_cache
 from pathlib import Path
 
-from lark import Lark, Token
+from lark import Lark, Token, Transformer
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
-from lark.visitors import Transformer_NonRecursive, v_args
 
 from . import expressions as ex
 from . import statements as st
@@ -43,36 +42,69 @@ def grammar_text() -> str:
         (folder / "certificate.lark").read_text(encoding="utf-8")
 
 
-@lru_cache(maxsize=1)
-def _parser() -> Lark:
+@lru_cache(maxsize=8)
+def _parser(limits: Limits = DEFAULT_LIMITS) -> Lark:
+    # the Transformer runs inside the parser (one pass, no tree): much faster
+    # on long certificates, and nothing recursive is left for deep nesting
     return Lark(grammar_text(), parser="lalr", start=["expr", "certificate"],
-                propagate_positions=True, maybe_placeholders=True)
-
-
-def _pos(meta) -> ex.Pos:
-    if getattr(meta, "empty", False):
-        return ex.NOWHERE
-    return ex.Pos(meta.line, meta.column, meta.end_line, meta.end_column)
+                maybe_placeholders=True, transformer=_Build(limits))
 
 
 def _tpos(tok: Token) -> ex.Pos:
     return ex.Pos(tok.line, tok.column, tok.end_line, tok.end_column)
 
 
-def _span(a: ex.Pos, b: ex.Pos) -> ex.Pos:
-    return ex.Pos(a.line, a.column, b.end_line, b.end_column)
+def _pos_of(item):
+    if isinstance(item, Token):
+        return _tpos(item)
+    return getattr(item, "pos", None)
+
+
+def _span(children) -> ex.Pos:
+    """From the first to the last positioned child."""
+    first = last = None
+    for c in children:
+        p = _pos_of(c) if not isinstance(c, list) else (_span(c) if c else None)
+        if p is None or p.line == 0:
+            continue
+        if first is None:
+            first = p
+        last = p
+    if first is None:
+        return ex.NOWHERE
+    return ex.Pos(first.line, first.column, last.end_line, last.end_column)
 
 
 _RELATIONS = {"=": "=", "<": "<", ">": ">", "<=": "<=", ">=": ">=", "!=": "!=",
               "\u2264": "<=", "\u2265": ">=", "\u2260": "!="}
 
 
-class _Build(Transformer_NonRecursive):
-    """Lark tree -> dataclasses.  Builds only; never judges."""
+class _Build(Transformer):
+    """Parser callbacks -> dataclasses.  Builds only; never judges.
+
+    Depth is tracked as nodes are made, so an expression nested beyond the
+    budget is refused before anything recursive walks it.
+    """
 
     def __init__(self, limits: Limits):
         super().__init__()
         self.limits = limits
+        self.depth: dict = {}
+
+    def _made(self, node, children):
+        d = 1
+        for c in children:
+            if isinstance(c, list):
+                for x in c:
+                    d = max(d, self.depth.get(id(x), 0) + 1)
+            else:
+                d = max(d, self.depth.get(id(c), 0) + 1)
+        self.depth[id(node)] = d
+        if d > self.limits.nesting:
+            raise BudgetExceeded(
+                f"the expression is nested {d} levels deep, over the limit nesting = "
+                f"{self.limits.nesting}", node.pos.line, node.pos.column)
+        return node
 
     # -- expressions -------------------------------------------------------
     def number(self, children):
@@ -87,64 +119,57 @@ class _Build(Transformer_NonRecursive):
         tok = children[0]
         return ex.Name(str(tok), _tpos(tok))
 
-    @v_args(meta=True)
-    def call(self, meta, children):
-        tok, args = children
-        return ex.Call(str(tok), tuple(args or ()), _pos(meta))
+    def call(self, children):
+        tok = children[0]
+        args = children[2] or []
+        return self._made(ex.Call(str(tok), tuple(args), _span(children)), args)
 
     def arguments(self, children):
-        return list(children)
+        return [c for c in children if not isinstance(c, Token)]
 
-    @v_args(meta=True)
-    def list(self, meta, children):
-        items = children[0] or []
+    def list(self, children):
+        items = children[1] or []
         if len(items) > self.limits.list_length:
             raise BudgetExceeded(f"a list of {len(items)} entries is over the limit list-length = "
-                                 f"{self.limits.list_length}", meta.line, meta.column)
-        return ex.ListExpr(tuple(items), _pos(meta))
+                                 f"{self.limits.list_length}", children[0].line, children[0].column)
+        return self._made(ex.ListExpr(tuple(items), _span(children)), items)
 
-    @v_args(meta=True)
-    def finite_sum(self, meta, children):
-        var, lower, upper, body = children
-        return ex.FiniteSum(str(var), lower, upper, body, _pos(meta))
+    def finite_sum(self, children):
+        parts = [c for c in children if not isinstance(c, Token) or c.type == "NAME"]
+        var, lower, upper, body = parts
+        return self._made(ex.FiniteSum(str(var), lower, upper, body, _span(children)), [lower, upper, body])
 
-    @v_args(meta=True)
-    def neg(self, meta, children):
-        return ex.Neg(children[1], _pos(meta))
+    def neg(self, children):
+        return self._made(ex.Neg(children[1], _span(children)), [children[1]])
 
-    @v_args(meta=True)
-    def power(self, meta, children):
-        return ex.Power(children[0], children[1], _pos(meta))
+    def power(self, children):
+        return self._made(ex.Power(children[0], children[1], _span(children)), children)
 
-    @v_args(meta=True)
-    def sum(self, meta, children):
+    def sum(self, children):
         terms = [(1, children[0])]
         for op, term in zip(children[1::2], children[2::2]):
             terms.append((1 if op == "+" else -1, term))
-        return ex.Sum(tuple(terms), _pos(meta))
+        return self._made(ex.Sum(tuple(terms), _span(children)), children[0::2])
 
-    @v_args(meta=True)
-    def product(self, meta, children):
+    def product(self, children):
         factors = [(False, children[0])]
         for op, factor in zip(children[1::2], children[2::2]):
             factors.append((op == "/", factor))
-        return ex.Product(tuple(factors), _pos(meta))
+        return self._made(ex.Product(tuple(factors), _span(children)), children[0::2])
 
     # -- statements --------------------------------------------------------
     def certificate(self, children):
+        self.depth.clear()
         return list(children)
 
-    @v_args(meta=True)
-    def title(self, meta, children):
-        return st.Title(str(children[0])[1:-1], _pos(meta))
+    def title(self, children):
+        return st.Title(str(children[1])[1:-1], _span(children))
 
-    @v_args(meta=True)
-    def source(self, meta, children):
-        return st.Source(str(children[0])[1:-1], _pos(meta))
+    def source(self, children):
+        return st.Source(str(children[1])[1:-1], _span(children))
 
-    @v_args(meta=True)
-    def let(self, meta, children):
-        return st.Let(str(children[0]), children[1], _pos(meta))
+    def let(self, children):
+        return st.Let(str(children[1]), children[3], _span(children))
 
     def label(self, children):
         return str(children[0])
@@ -152,49 +177,28 @@ class _Build(Transformer_NonRecursive):
     def relation(self, children):
         return _RELATIONS[str(children[0])]
 
-    @v_args(meta=True)
-    def claim(self, meta, children):
-        label, lhs, relation, rhs = children
-        return st.Claim(label, lhs, relation, rhs, _pos(meta))
+    def claim(self, children):
+        _kw, label, lhs, relation, rhs = children
+        return st.Claim(label, lhs, relation, rhs, _span(children))
 
-    @v_args(meta=True)
-    def congruence(self, meta, children):
-        label, lhs, _sym, rhs, modulus = children
-        return st.Congruence(label, lhs, rhs, modulus, _pos(meta))
+    def congruence(self, children):
+        _kw, label, lhs, _sym, rhs, _mod, modulus = children
+        return st.Congruence(label, lhs, rhs, modulus, _span(children))
 
-    @v_args(meta=True)
-    def chain(self, meta, children):
-        label, start, *steps = children
-        return st.Chain(label, start, tuple(steps), _pos(meta))
+    def chain(self, children):
+        _kw, label, start, *steps = children
+        return st.Chain(label, start, tuple(steps), _span(children))
 
-    @v_args(meta=True)
-    def step(self, meta, children):
-        expr, *rules = children
-        return st.Step(expr, tuple(rules), _pos(meta))
+    def step(self, children):
+        expr = children[1]
+        rules = [c for c in children[3:] if isinstance(c, st.RuleRef)]
+        return st.Step(expr, tuple(rules), _span(children))
 
-    @v_args(meta=True)
-    def rule(self, meta, children):
-        return st.RuleRef(str(children[0]), None, _pos(meta))
+    def rule(self, children):
+        return st.RuleRef(str(children[0]), None, _tpos(children[0]))
 
-    @v_args(meta=True)
-    def use_claim(self, meta, children):
-        return st.RuleRef("claim", str(children[0]), _pos(meta))
-
-
-def _check_depth(tree, limits: Limits) -> None:
-    """Refuse trees nested deeper than the budget, before anything recurses on them."""
-    depth = {}
-    for sub in tree.iter_subtrees():       # children come before their parents
-        d = 1
-        for child in sub.children:
-            if hasattr(child, "children"):
-                d = max(d, depth[id(child)] + 1)
-        depth[id(sub)] = d
-        if d > limits.nesting and sub.data not in ("certificate",):
-            meta = sub.meta
-            raise BudgetExceeded(
-                f"the expression is nested {d} levels deep, over the limit nesting = {limits.nesting}",
-                getattr(meta, "line", None), getattr(meta, "column", None))
+    def use_claim(self, children):
+        return st.RuleRef("claim", str(children[0]), _tpos(children[0]))
 
 
 def _parse(text: str, start: str, limits: Limits):
@@ -203,17 +207,18 @@ def _parse(text: str, start: str, limits: Limits):
         line = text.count("\n", 0, i) + 1
         column = i - (text.rfind("\n", 0, i) + 1) + 1
         raise SyntaxProblem("the text contains a NUL character", line, column)
+    parser = _parser(limits)
     try:
-        tree = _parser().parse(text, start=start)
+        result = parser.parse(text, start=start)
     except UnexpectedInput as e:
         raise _syntax_problem(e, text, start == "expr") from None
-    _check_depth(tree, limits)
-    try:
-        return _Build(limits).transform(tree)
     except VisitError as e:
         if isinstance(e.orig_exc, CertificateError):
             raise e.orig_exc from None
         raise
+    finally:
+        parser.options.transformer.depth.clear()
+    return result
 
 
 def parse_expression(text: str, limits: Limits = DEFAULT_LIMITS) -> ex.Expr:

@@ -98,5 +98,6 @@ def summary_line(reports: list[Report], seconds: float) -> str:
     failures = sum(len(r.failures) for r in reports)
     head = "all verified" if good == files else f"{files - good} of {files} not verified"
     return (f"quasicert: {head}: {files} certificate{'s' if files != 1 else ''}, "
-            f"{checked} claims and steps verified, {failures} failure{'s' if failures != 1 else ''}, "
+            f"{checked} claim{'s' if checked != 1 else ''} and steps verified, "
+            f"{failures} failure{'s' if failures != 1 else ''}, "
             f"{seconds:.2f} s")

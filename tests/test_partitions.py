@@ -36,9 +36,9 @@ def test_against_sympy_series(parts):
 def test_against_sympy_series_random_parts():
     # sympy series of random A, both evaluation paths
     rng = random.Random(5)
-    for _ in range(6):
-        parts = [rng.randint(1, 9) for _ in range(rng.randint(1, 4))]
-        for n, c in enumerate(sympy_coefficients(parts, 40)):
+    for _ in range(5):
+        parts = [rng.randint(1, 9) for _ in range(rng.randint(1, 3))]
+        for n, c in enumerate(sympy_coefficients(parts, 30)):
             assert partitions_by_quasipolynomial(n, parts) == c, (parts, n)
 
 

@@ -1,0 +1,61 @@
+"""Certificate speed: parsing and checking large generated certificates.
+
+Run on demand:  python tests/benchmarks/bench_certificates.py
+Ratios are against evaluating the same values directly with the kernel in
+the same run (the cost of the language and the double check on top of the
+mathematics).
+"""
+from __future__ import annotations
+
+import os
+import random
+import sys
+import time
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
+
+from checker import check_text  # noqa: E402
+from checker.dedekind import dedekind  # noqa: E402
+from checker.derive import derive_dedekind  # noqa: E402
+from checker.numbers import value_text  # noqa: E402
+
+
+def timed(fn):
+    t = time.perf_counter()
+    out = fn()
+    return time.perf_counter() - t, out
+
+
+def bench_many_claims(count=10_000):
+    rng = random.Random(1)
+    pairs = []
+    for _ in range(count):
+        k = rng.randint(10**19, 10**20)
+        pairs.append((rng.randint(1, k), k))
+    text = "\n".join(f"claim c{i}: dedekind({h}, {k}) = {value_text(dedekind(h, k))}"
+                     for i, (h, k) in enumerate(pairs)) + "\n"
+    check_text("claim 1 = 1\n")                      # build the parser once
+    seconds, report = timed(lambda: check_text(text))
+    kernel, _ = timed(lambda: [dedekind(h, k) for h, k in pairs])
+    assert report.ok and report.checked == count
+    print(f"{count} claims of 20-digit dedekind values: {seconds:.2f} s (goal < 3 s); "
+          f"kernel alone {kernel:.3f} s; ratio {seconds / kernel:.0f}x")
+
+
+def bench_derive(digits):
+    rng = random.Random(digits)
+    k = rng.randint(10 ** (digits - 1), 10 ** digits)
+    h = rng.randint(1, k)
+    write, text = timed(lambda: derive_dedekind(h, k))
+    check, report = timed(lambda: check_text(text))
+    kernel, _ = timed(lambda: dedekind(h, k))
+    assert report.ok
+    print(f"derive dedekind at {digits} digits: write {write:.3f} s (goal well under 1 s), "
+          f"{len(text) / 1e6:.1f} MB, {report.checked} steps; check {check:.2f} s; "
+          f"one kernel evaluation {kernel * 1e3:.2f} ms; check/kernel {check / kernel:.0f}x")
+
+
+if __name__ == "__main__":
+    bench_many_claims()
+    for digits in (20, 200, 1000):
+        bench_derive(digits)

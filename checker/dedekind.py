@@ -56,9 +56,20 @@ def reciprocity_term(h: int, k: int) -> Fraction:
     return Fraction(h * h + k * k + 1 - 3 * h * k, 12 * h * k)
 
 
-def _alternating_quotients(r0: int, r1: int) -> tuple[int, int]:
-    """(q_1 - q_2 + q_3 - ..., n) for Euclid's algorithm on r0 > r1 > 0."""
+try:                                   # optional: GMP's modular inverse is much faster
+    from gmpy2 import invert as _gmp_invert
+except ImportError:                    # pragma: no cover - depends on the machine
+    _gmp_invert = None
+
+
+def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int]:
+    """(q_1 - q_2 + q_3 - ..., n, u) for Euclid's algorithm on coprime r0 > r1 > 0.
+
+    With want_inverse, u r1 = 1 (mod r0), from the cofactors carried along
+    (r_i = u_i r1 mod r0); otherwise u = 0.
+    """
     alt, n = 0, 0
+    u0, u1 = 0, 1
     while r1.bit_length() > _LEADING_BITS + 64:
         shift = r0.bit_length() - _LEADING_BITS
         x0 = x = r0 >> shift
@@ -82,21 +93,41 @@ def _alternating_quotients(r0: int, r1: int) -> tuple[int, int]:
                 alt += t if n % 2 == 0 else -t
                 n += 1 if odd else 2
                 r0, r1 = n0, n1
+                if want_inverse:
+                    u0, u1 = a * u0 + b * u1, c * u0 + d * u1
                 continue
         q, r2 = divmod(r0, r1)
         alt += q if n % 2 == 0 else -q
         n += 1
         r0, r1 = r1, r2
+        u0, u1 = u1, u0 - q * u1
+    # the small tail, two quotients a turn; `ahead` collects the quotients
+    # whose sign is that of the next one, `behind` the others
     sign = 1 if n % 2 == 0 else -1
-    while r1:
+    ahead = behind = 0
+    if want_inverse:
+        while True:
+            q, r0 = divmod(r0, r1)
+            ahead += q
+            u0 -= q * u1
+            if not r0:
+                return alt + sign * (ahead - behind), n + 1, u1
+            q, r1 = divmod(r1, r0)
+            behind += q
+            u1 -= q * u0
+            n += 2
+            if not r1:
+                return alt + sign * (ahead - behind), n, u0
+    while True:
         q, r0 = divmod(r0, r1)
-        alt += sign * q
+        ahead += q
         if not r0:
-            return alt, n + 1
+            return alt + sign * (ahead - behind), n + 1, 0
         q, r1 = divmod(r1, r0)
-        alt -= sign * q
+        behind += q
         n += 2
-    return alt, n
+        if not r1:
+            return alt + sign * (ahead - behind), n, 0
 
 
 def _reduced_pair(h: int, k: int) -> tuple[int, int]:
@@ -112,8 +143,13 @@ def dedekind(h, k) -> Fraction:
     h, k = _reduced_pair(h, k)
     if k == 1:
         return Fraction(0)
-    alt, n = _alternating_quotients(k, h)
-    numerator = k * (alt - (3 if n % 2 else 1)) + h + pow(h, -1, k)
+    if _gmp_invert is not None:
+        alt, n, _ = _euclid(k, h, False)
+        inverse = int(_gmp_invert(h, k))
+    else:
+        alt, n, inverse = _euclid(k, h, True)
+        inverse %= k
+    numerator = k * (alt - (3 if n % 2 else 1)) + h + inverse
     return Fraction(numerator, 12 * k)
 
 

@@ -42,6 +42,21 @@ def test_dedekind_matches_python_flint_beyond_lehmer_threshold():
             exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
 
 
+@pytest.mark.parametrize("use_gmpy2", [True, False])
+def test_both_inverse_paths_against_python_flint(monkeypatch, use_gmpy2):
+    # python-flint; the modular inverse from gmpy2, or from the cofactors carried along
+    import checker.dedekind as module
+    if not use_gmpy2:
+        monkeypatch.setattr(module, "_gmp_invert", None)
+    elif module._gmp_invert is None:
+        pytest.skip("gmpy2 is not installed")
+    rng = random.Random(17)
+    for digits in (1, 3, 30, 140, 141, 400, 1200):
+        for _ in range(30):
+            h, k = random_coprime_pair(rng, digits)
+            exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
+
+
 def test_dedekind_non_coprime_and_all_h_against_flint():
     # python-flint accepts any h and k >= 1
     for k in range(1, 80):

@@ -48,6 +48,7 @@ __all__ = [
 ]
 
 _LEADING_BITS = 400          # bits of the leading parts simulated per batch
+_GMP_BITS = 160              # below this, carrying the cofactor beats a call into gmpy2
 _STOP = 1 << (_LEADING_BITS // 2 + 8)
 
 
@@ -143,7 +144,7 @@ def dedekind(h, k) -> Fraction:
     h, k = _reduced_pair(h, k)
     if k == 1:
         return Fraction(0)
-    if _gmp_invert is not None:
+    if _gmp_invert is not None and k.bit_length() > _GMP_BITS:
         alt, n, _ = _euclid(k, h, False)
         inverse = int(_gmp_invert(h, k))
     else:

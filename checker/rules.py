@@ -23,7 +23,7 @@ from typing import Callable
 from .bernoulli import bernoulli
 from .dedekind import reciprocity_term
 from .errors import RuleRefused
-from .normal import NF, add, atom_nf, constant, mul, scale
+from .normal import NF, add, atom_nf, atom_text, constant, mul, scale
 from .numbers import value_text
 
 __all__ = ["Rule", "RULES", "WHOLE_LINE_RULES"]
@@ -163,7 +163,8 @@ def _negate(atom, target, limits):
 # -- inverse -----------------------------------------------------------------
 
 def _target_dedekind(target):
-    for a in target:
+    # sorted: set order of atoms varies between runs, messages must not
+    for a in sorted(target, key=atom_text):
         if a[0] == "dedekind" and all(isinstance(x, Fraction) and x.denominator == 1 for x in a[1]):
             yield a[1][0].numerator, a[1][1].numerator
 
@@ -221,7 +222,9 @@ def _three_term(atom, target, limits):
         if not others:
             _refuse("the three-term law replaces s(b c*, a) by -1/4 + (a^2+b^2+c^2)/(12abc) - s(c a*, b) "
                     "- s(a b*, c), but the next line has no two other dedekind sums")
-        _refuse(reasons[0])
+        # prefer the ordering in which the rewritten call itself fits the law
+        fitting = [r for r in reasons if "s(b c*, a)" not in r]
+        _refuse((fitting or reasons)[0])
     return out
 
 

@@ -12,7 +12,7 @@ from fractions import Fraction
 from pathlib import Path
 
 from . import statements as st
-from .errors import BudgetExceeded, CertificateError, SyntaxProblem, UnreadableFile
+from .errors import BudgetExceeded, CertificateError, CheckerBug, SyntaxProblem, UnreadableFile
 from .evaluation import Evaluator
 from .functions import REGISTRY
 from .kernel import check_step, compare, congruent, known_rule, nf_value
@@ -60,7 +60,7 @@ class _Facts:
 
 
 def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
-               keep_going: bool = False) -> Report:
+               keep_going: bool = False, paranoid: bool = False) -> Report:
     """Check a certificate given as text; never raises for anything the text contains."""
     start = time.perf_counter()
     report = Report(name=name, text=text)
@@ -70,7 +70,7 @@ def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
         report.failures.append(_from_error(e, exit_code=2))
         report.seconds = time.perf_counter() - start
         return report
-    _Replay(cert, report, limits, keep_going).run()
+    _Replay(cert, report, limits, keep_going, paranoid).run()
     report.seconds = time.perf_counter() - start
     return report
 
@@ -107,7 +107,8 @@ def read_certificate_text(path: Path, limits: Limits = DEFAULT_LIMITS) -> str:
                                line, column) from None
 
 
-def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False) -> Report:
+def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False,
+               paranoid: bool = False) -> Report:
     """Check one certificate file."""
     path = Path(path)
     try:
@@ -116,23 +117,26 @@ def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False) 
         report = Report(name=str(path))
         report.failures.append(_from_error(e, exit_code=2))
         return report
-    return check_text(text, str(path), limits, keep_going)
+    return check_text(text, str(path), limits, keep_going, paranoid)
 
 
 def _from_error(e: CertificateError, exit_code: int | None = None, source_note=None) -> Failure:
     if exit_code is None:
-        exit_code = 2 if isinstance(e, (BudgetExceeded, SyntaxProblem)) else 1
+        exit_code = e.exit_code if isinstance(e, CheckerBug) else \
+            2 if isinstance(e, (BudgetExceeded, SyntaxProblem)) else 1
     return Failure(e.line, e.column, e.message, kind=e.kind, end_column=e.end_column,
                    exit_code=exit_code, source_note=source_note)
 
 
 class _Replay:
-    def __init__(self, cert: st.Certificate, report: Report, limits: Limits, keep_going: bool):
+    def __init__(self, cert: st.Certificate, report: Report, limits: Limits, keep_going: bool,
+                 paranoid: bool = False):
         self.cert = cert
         self.report = report
         self.limits = limits
         self.keep_going = keep_going
-        self.evaluator = Evaluator({}, limits)
+        self.evaluator = Evaluator({}, limits, paranoid)
+        self.deadline = time.monotonic() + limits.seconds
         self.normaliser = Normaliser(self.evaluator)
         self.facts = _Facts(self.normaliser)   # verified equalities only
         self.labels: dict = {}         # label -> line where it was given
@@ -143,6 +147,7 @@ class _Replay:
         try:
             for stmt in self.cert.statements:
                 try:
+                    self._on_time(stmt)
                     getattr(self, "_" + type(stmt).__name__)(stmt)
                 except _Stop:
                     raise
@@ -150,6 +155,15 @@ class _Replay:
                     self._fail(_from_error(e.at(stmt), source_note=self.source_note))
         except _Stop:
             pass
+
+    def _on_time(self, node):
+        if time.monotonic() > self.deadline:
+            pos = node.pos
+            self.report.failures.append(Failure(
+                pos.line, pos.column, f"the check has run for more than {self.limits.seconds} s, the "
+                f"limit seconds = {self.limits.seconds} (raise it with --limit seconds=N); "
+                "nothing from here on was checked", kind="limit", exit_code=2))
+            raise _Stop()
 
     def _fail(self, failure: Failure):
         if failure.source_note is None:
@@ -250,9 +264,10 @@ class _Replay:
         if not self._claim_label(stmt.label, stmt):
             return
         prev_nf = self.normaliser.normal(stmt.start)
-        prev_value = nf_value(prev_nf, self._call)
+        prev_value = nf_value(prev_nf, self._call, self.limits)
         start_nf, all_ok = prev_nf, True
         for index, step in enumerate(stmt.steps, 1):
+            self._on_time(step)
             ok, next_nf, next_value = self._step(stmt, index, step, prev_nf, prev_value)
             all_ok = all_ok and ok
             if next_nf is None:          # the line itself could not be read as a normal form
@@ -274,7 +289,7 @@ class _Replay:
         self.normaliser.positions = {}
         next_nf = self.normaliser.normal(step.expr)
         positions = self.normaliser.positions
-        next_value = nf_value(next_nf, self._call)
+        next_value = nf_value(next_nf, self._call, self.limits)
         rules = [(r.name, r.label) for r in step.rules]
         verdict = check_step(prev_nf, next_nf, rules, self._call, self.facts, self.limits)
         values_ok = next_value == prev_value

@@ -135,14 +135,14 @@ def _cmd_check(ns, out, err) -> int:
     start = time.perf_counter()
     reports = []
     for path in paths:
-        report = check_file(path, limits, keep_going=ns.every_failure)
+        report = check_file(path, limits, keep_going=ns.every_failure, paranoid=ns.paranoid)
         reports.append(report)
         for f in report.failures:
             print(render_failure(report, f), file=out)
         if ns.list_each:
             status = "verified" if report.ok else "not verified"
             print(f"{report.name}: {status} ({report.checked} claims and steps)", file=out)
-    print(summary_line(reports, time.perf_counter() - start), file=out)
+    print(summary_line(reports, None if ns.no_time else time.perf_counter() - start), file=out)
     return max((r.exit_code for r in reports), default=EXIT_OK)
 
 
@@ -162,7 +162,7 @@ def _parser() -> argparse.ArgumentParser:
         "Replays certificates about Dedekind-type sums, Bernoulli numbers and restricted "
         "partition functions with exact arithmetic, and points at the first wrong step."),
         epilog="exit status: 0 all verified, 1 a claim or step is wrong, 2 unreadable input, "
-               "a syntax error, a usage error or a limit reached")
+               "a syntax error, a usage error or a limit reached, 3 a bug in quasicert found by --paranoid")
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
     c = sub.add_parser("check", help="replay certificates (default: the bundled ones)")
     c.add_argument("paths", nargs="*", metavar="PATH", help="*.qcert files, or folders to search")
@@ -171,6 +171,11 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--list-each", action="store_true", help="print one verdict line per file")
     c.add_argument("--limit", action="append", metavar="NAME=N", default=[],
                    help="raise or lower a budget, e.g. --limit terms=10000000")
+    c.add_argument("--paranoid", action="store_true",
+                   help="compute every function value a second way where sizes allow; "
+                        "a disagreement is reported as a bug in quasicert (exit 3)")
+    c.add_argument("--no-time", action="store_true",
+                   help="leave the time out of the summary line (byte-identical output)")
     sub.add_parser("eval", help="print the exact value of expressions", add_help=False)
     d = sub.add_parser("derive", help="write a certificate for a value, e.g. \"dedekind(5, 17)\"")
     d.add_argument("expression")

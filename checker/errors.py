@@ -15,6 +15,7 @@ __all__ = [
     "BudgetExceeded",
     "RuleRefused",
     "UnreadableFile",
+    "CheckerBug",
     "UsageError",
 ]
 
@@ -100,6 +101,13 @@ class UnreadableFile(CertificateError):
     """The file cannot be read as UTF-8 text, or is over the size limit."""
 
     kind = "unreadable"
+
+
+class CheckerBug(CertificateError):
+    """Two independent computations of one value disagree: quasicert itself is wrong."""
+
+    kind = "checker bug"
+    exit_code = 3
 
 
 class UsageError(CertificateError):

@@ -13,7 +13,7 @@ from fractions import Fraction
 
 from . import expressions as ex
 from .dedekind import dedekind_along_euclid
-from .errors import BudgetExceeded, CertificateError, DomainError
+from .errors import BudgetExceeded, CertificateError, CheckerBug, DomainError
 from .functions import REGISTRY
 from .limits import DEFAULT_LIMITS, Limits
 from .parsing import parse_expression
@@ -27,10 +27,13 @@ _EUCLID_MEMO_BITS = 256     # from this size on, one pass fills every pair of a 
 class Evaluator:
     """Evaluates trees in an environment of named values, with a memo of function values."""
 
-    def __init__(self, env: dict | None = None, limits: Limits = DEFAULT_LIMITS):
+    def __init__(self, env: dict | None = None, limits: Limits = DEFAULT_LIMITS,
+                 paranoid: bool = False):
         self.env = dict(env or {})
         self.limits = limits
         self.memo: dict = {}
+        self.paranoid = paranoid
+        self.second_opinions = 0       # values computed twice, in paranoid mode
 
     # -- public -------------------------------------------------------------
     def value(self, node: ex.Expr):
@@ -58,14 +61,30 @@ class Evaluator:
         hit = self.memo.get(key)
         if hit is not None:
             return hit
-        if name == "dedekind" and self._fill_euclid(args):
+        if name == "dedekind" and not self.paranoid and self._fill_euclid(args):
             hit = self.memo.get(key)
             if hit is not None:
                 return hit
         result = spec.call(args, self.limits)
         self._check_size(result)
+        if self.paranoid:
+            self._second_opinion(name, args, result)
         self._remember(key, result)
         return result
+
+    def _second_opinion(self, name, args, result):
+        from .normal import atom_text
+        from .numbers import value_text
+        from .second_opinion import second_opinion
+        other = second_opinion(name, args)
+        if other is None:
+            return
+        value, method = other
+        self.second_opinions += 1
+        if value != result:
+            raise CheckerBug(f"{atom_text((name, args))} is {value_text(result)} by the kernel but "
+                             f"{value_text(value)} by {method}: this is a bug in quasicert, "
+                             "please report it with this certificate")
 
     # -- nodes --------------------------------------------------------------
     def _Num(self, node):

@@ -117,7 +117,8 @@ def _cost_generalized(p, h, k):
 def _cost_fourier(n, parts, b):
     m, b = _list_len(parts), _int_or_zero(b)
     if m <= 2:
-        return None
+        # floor sums on numbers of this size: about bits^2 word steps
+        return ("terms", b.bit_length() ** 2 // 100, f"a Fourier-Dedekind sum modulo a {b.bit_length()}-bit b")
     return ("terms", b * m, f"a Fourier-Dedekind sum with {m} parameters modulo {b}")
 
 
@@ -163,7 +164,13 @@ def _cost_binomial(n, j):
 
 
 def _cost_floor_sum(count, a, b, m):
-    return None
+    bits = max(_int_or_zero(x).bit_length() for x in (count, a, b, m))
+    return ("terms", bits ** 2 // 100, f"a floor sum of {bits}-bit numbers")
+
+
+def _cost_lcm(*args):
+    bits = sum(_int_or_zero(x).bit_length() for a in args for x in (a if isinstance(a, tuple) else (a,)))
+    return ("integer_bits", bits, "the least common multiple")
 
 
 def _spec(name, signature, definition, impl, arity, arithmetic=False, cost=None):
@@ -177,10 +184,10 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("frac", "x", "x - floor(x)", frac, (1, 1), True),
     _spec("mod", "a, m", "the residue of a modulo m in [0, |m|)", mod, (2, 2), True),
     _spec("gcd", "a, b, ...", "greatest common divisor", gcd, (1, 1000), True),
-    _spec("lcm", "a, b, ...", "least common multiple", lcm, (1, 1000), True),
+    _spec("lcm", "a, b, ...", "least common multiple", lcm, (1, 1000), True, _cost_lcm),
     _spec("binomial", "n, j", "n choose j", binomial, (2, 2), True, _cost_binomial),
     _spec("floor_sum", "count, a, b, m", "sum_{i=0}^{count-1} floor((a i + b)/m)", floor_sum,
-          (4, 4), True),
+          (4, 4), True, _cost_floor_sum),
     _spec("sawtooth", "x", "((x)) = x - floor(x) - 1/2, and 0 at integers", sawtooth, (1, 1)),
     _spec("bernoulli", "n [, x]", "the Bernoulli number B_n (B_1 = -1/2), or the polynomial B_n(x)",
           bernoulli, (1, 2), False, _cost_bernoulli),

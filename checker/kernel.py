@@ -47,7 +47,7 @@ def congruent(lhs: Fraction, rhs: Fraction, modulus: Fraction) -> bool:
     return ((lhs - rhs) / modulus).denominator == 1
 
 
-def nf_value(x: NF, call) -> Fraction:
+def nf_value(x: NF, call, limits=None) -> Fraction:
     """The exact value of a normal form; `call(name, args)` gives an atom's value."""
     total = Fraction(0)
     for m, c in x.items():
@@ -58,6 +58,10 @@ def nf_value(x: NF, call) -> Fraction:
                 raise CertificateError(f"{name} gives a list where a number is needed")
             if v == 0 and e < 0:
                 raise CertificateError(f"{atom_text((name, args))} is 0 and stands in a denominator")
+            if limits is not None and abs(e) > 1 and v not in (0, 1, -1):
+                size = max(v.numerator.bit_length(), v.denominator.bit_length())
+                limits.require("integer_bits", (size - 1) * abs(e) + 1,
+                               f"the power {abs(e)} of {atom_text((name, args))}")
             term *= v ** e
         total += term
     return total

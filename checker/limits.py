@@ -30,7 +30,9 @@ class Limits:
     #: nesting depth of an expression (calls and operators inside one another)
     nesting: int = 200
     #: size of one certificate file
-    file_bytes: int = 64 * 1024 * 1024
+    file_bytes: int = 16 * 1024 * 1024
+    #: wall-clock seconds for one certificate (checked between statements and steps)
+    seconds: int = 600
 
     def require(self, name: str, needed: int, what: str) -> None:
         """Refuse when `needed` exceeds the limit called `name`."""
@@ -54,7 +56,8 @@ class Limits:
 
 _UNITS = {"integer_bits": " bits", "terms": " steps", "unfold_terms": " terms",
           "bernoulli_index": "", "list_length": " entries", "literal_digits": " digits",
-          "nesting": " levels", "file_bytes": " bytes"}
+          "nesting": " levels", "file_bytes": " bytes",
+          "seconds": " seconds"}
 
 
 def _short(n: int) -> str:

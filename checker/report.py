@@ -91,7 +91,7 @@ def render_report(report: Report, verbose: bool = False) -> str:
     return "\n".join(lines)
 
 
-def summary_line(reports: list[Report], seconds: float) -> str:
+def summary_line(reports: list[Report], seconds: float | None) -> str:
     files = len(reports)
     good = sum(1 for r in reports if r.ok)
     checked = sum(r.checked for r in reports)
@@ -99,5 +99,5 @@ def summary_line(reports: list[Report], seconds: float) -> str:
     head = "all verified" if good == files else f"{files - good} of {files} not verified"
     return (f"quasicert: {head}: {files} certificate{'s' if files != 1 else ''}, "
             f"{checked} claim{'s' if checked != 1 else ''} and steps verified, "
-            f"{failures} failure{'s' if failures != 1 else ''}, "
-            f"{seconds:.2f} s")
+            f"{failures} failure{'s' if failures != 1 else ''}"
+            + (f", {seconds:.2f} s" if seconds is not None else ""))

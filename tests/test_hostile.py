@@ -1,0 +1,169 @@
+"""Hostile and malformed input: every case ends in a verdict, never a traceback or a hang."""
+import io
+import time
+from pathlib import Path
+
+import pytest
+from hypothesis import given, settings, strategies as st
+
+from checker import check_file, check_text
+from checker.cli import main
+from checker.limits import Limits
+
+KINDS = {"failed", "error", "syntax error", "limit", "unreadable"}
+
+
+def verdict(report):
+    """Every failure is one of the known kinds, with a position when the text has one."""
+    for f in report.failures:
+        assert f.kind in KINDS, f
+        assert isinstance(f.message, str) and f.message
+        if f.kind != "unreadable" or f.line is not None:
+            assert f.line is None or f.line >= 1
+    return report
+
+
+@settings(max_examples=300)
+@given(st.binary(max_size=400))
+def test_random_bytes(tmp_path_factory, data):
+    path = tmp_path_factory.mktemp("fuzz") / "x.qcert"
+    path.write_bytes(data)
+    verdict(check_file(path))
+
+
+@settings(max_examples=300)
+@given(st.text(max_size=300))
+def test_random_text(text):
+    report = verdict(check_text(text))
+    for f in report.failures:
+        assert f.line is not None and f.column is not None
+
+
+TOKENS = ["claim", "chain", "let", "title", "source", "=", "==", "mod", "by", "reduce",
+          "reciprocity", "value", "arithmetic", "unfold", "negate", "inverse", "common_factor",
+          "three_term", "claim q", "q:", "dedekind(", "partitions(", "bernoulli(", "frobenius(",
+          "fourier_dedekind(", "sum(j = 0 .. ", "generalized_dedekind(", "floor(", ")", "(", "[",
+          "]", ",", "+", "-", "*", "/", "^", "1", "0", "17", "5", "-3", "10^10^10", "\n", "# c\n",
+          '"x"', "x", "j", "<", "<=", "!=", "2^64", "1/0"]
+
+
+@settings(max_examples=400, deadline=None)
+@given(st.lists(st.sampled_from(TOKENS), max_size=40))
+def test_grammar_aware_token_soup(tokens):
+    start = time.perf_counter()
+    verdict(check_text(" ".join(tokens)))
+    assert time.perf_counter() - start < 20
+
+
+def _lines(n, line):
+    return "".join(line for _ in range(n))
+
+
+HOSTILE = [
+    ("empty file", "", None),
+    ("only comments", "# nothing\n# here\n", None),
+    ("NUL byte", "claim 1 = 1\x00\n", "syntax error"),
+    ("python code", "__import__('os').system('echo hi')\n", "syntax error"),
+    ("python lambda", "claim (lambda: 1)() = 1\n", "syntax error"),
+    ("10,000 nested parentheses", "claim " + "(" * 10_000 + "1" + ")" * 10_000 + " = 1\n", None),
+    ("deeply nested calls", "claim " + "floor(" * 5000 + "1" + ")" * 5000 + " = 1\n", "limit"),
+    ("exponent tower", "claim 10^10^10 = 1\n", "limit"),
+    ("huge binomial", "claim binomial(10^9, 10^8) = 1\n", "limit"),
+    ("huge Bernoulli index", "claim bernoulli(10^12) = 0\n", "limit"),
+    ("unfold of a giant sum", "chain dedekind(1, 10^9)\n  = 0 by unfold\n", "limit"),
+    ("giant finite sum", "claim sum(j = 1 .. 10^15, j) = 0\n", "limit"),
+    ("giant partition table", "claim partitions(10^12, [10^9, 10^9 + 1]) = 0\n", "limit"),
+    ("giant Frobenius table", "claim frobenius([10^12 + 1, 10^12]) = 0\n", "limit"),
+    ("huge Fourier-Dedekind modulus", "claim fourier_dedekind(1, [1, 1], 10^9000 + 1) = 0\n", "limit"),
+    ("power of a call", "chain dedekind(1, 3)^(10^7)\n  = 0 by value\n", "limit"),
+    ("long literal", "claim " + "9" * 300_000 + " = 1\n", "limit"),
+    ("long list", "claim frobenius([" + ", ".join(["7"] * 2000) + "]) = 0\n", "limit"),
+    ("a one-megabyte line", "claim " + "+".join(["1"] * 500_000) + " = 500000\n", None),
+    ("division by zero", "claim 1/(2 - 2) = 0\n", "error"),
+    ("unknown name", "claim zeta(2) = 0\n", "error"),
+    ("escape-like strings", 'title "\\n\\x00"\nclaim 1 = 1\n', None),
+]
+
+
+@pytest.mark.parametrize("name, text, kind", HOSTILE, ids=[h[0] for h in HOSTILE])
+def test_hostile_inputs(name, text, kind):
+    start = time.perf_counter()
+    report = verdict(check_text(text))
+    elapsed = time.perf_counter() - start
+    if kind is None:
+        assert report.ok, report.failure
+    else:
+        assert not report.ok and report.failure.kind == kind, report.failure
+        assert report.failure.line is not None
+    assert elapsed < 30
+
+
+def test_many_megabytes_file(tmp_path):
+    path = tmp_path / "big.qcert"
+    path.write_text(_lines(60_000, "claim 12345678901234567890 * 3 = 37037036703703703670 * 1\n"))   # 3.5 MB
+    report = check_file(path)
+    assert report.ok and report.checked == 60_000
+
+
+def test_file_size_limit(tmp_path):
+    path = tmp_path / "big.qcert"
+    path.write_text(_lines(1000, "claim 1 = 1\n"))
+    report = check_file(path, Limits(file_bytes=100))
+    assert report.failure.kind == "unreadable"
+    assert report.failure.message == ("the file has 12000 bytes, over the limit file-bytes = 100 "
+                                      "(raise it with --limit file-bytes=N)")
+
+
+def test_time_limit():
+    report = check_text("claim 1 = 1\nclaim 2 = 2\n", limits=Limits(seconds=0))
+    f = report.failure
+    assert f.kind == "limit" and f.message.startswith("the check has run for more than 0 s, the limit seconds = 0")
+
+
+def test_list_and_literal_limits_name_themselves():
+    f = check_text("claim gcd([1, 2, 3]) = 1\n", limits=Limits(list_length=2)).failure
+    assert f.message == "a list of 3 entries is over the limit list-length = 2"
+    f = check_text("claim 123456 = 1\n", limits=Limits(literal_digits=5)).failure
+    assert f.message == "an integer literal of 6 digits is over the limit literal-digits = 5"
+    f = check_text("claim floor(floor(floor(1))) = 1\n", limits=Limits(nesting=2)).failure
+    assert f.message == "the expression is nested 3 levels deep, over the limit nesting = 2"
+    f = check_text("chain dedekind(1, 30)\n  = 0 by unfold\n", limits=Limits(unfold_terms=10)).failure
+    assert "over the limit unfold-terms = 10" in f.message + " ".join(f.details)
+
+
+def test_cli_never_prints_a_traceback(tmp_path):
+    for name, text, kind in HOSTILE[:6]:
+        path = tmp_path / "h.qcert"
+        path.write_text(text)
+        out, err = io.StringIO(), io.StringIO()
+        code = main(["check", str(path)], out=out, err=err)
+        assert code in (0, 1, 2)
+        assert "Traceback" not in out.getvalue() + err.getvalue()
+
+
+def test_paranoid_mode_finds_a_planted_bug(monkeypatch):
+    import checker.functions as functions
+    from dataclasses import replace
+    wrong = replace(functions.REGISTRY["dedekind"], impl=lambda h, k: functions.dedekind(h, k) + 1)
+    monkeypatch.setitem(functions.REGISTRY, "dedekind", wrong)
+    report = check_text("claim dedekind(5, 17) = 18/17\n", paranoid=True)
+    f = report.failure
+    assert f.kind == "checker bug" and report.exit_code == 3
+    assert f.message.startswith("dedekind(5, 17) is 18/17 by the kernel but 1/17 by the definition, term by term")
+    assert check_text("claim dedekind(5, 17) = 18/17\n").ok       # without --paranoid the bug goes unseen
+
+
+def test_paranoid_mode_agrees_on_the_bundled_certificates():
+    from checker.cli import bundled_certificates
+    for path in bundled_certificates():
+        assert check_file(path, paranoid=True).ok, path
+
+
+def test_reports_are_deterministic(tmp_path):
+    broken = sorted((Path(__file__).parent / "broken").glob("*.qcert"))
+    outputs = set()
+    for _ in range(3):
+        out = io.StringIO()
+        main(["check", "--every-failure", "--no-time", *map(str, broken)], out=out, err=io.StringIO())
+        outputs.add(out.getvalue())
+    assert len(outputs) == 1

@@ -219,7 +219,7 @@ def _three_term(atom, target, limits):
             elif why not in reasons:
                 reasons.append(why)
     if not out:
-        if not others:
+        if len(others) < 2:
             _refuse("the three-term law replaces s(b c*, a) by -1/4 + (a^2+b^2+c^2)/(12abc) - s(c a*, b) "
                     "- s(a b*, c), but the next line has no two other dedekind sums")
         # prefer the ordering in which the rewritten call itself fits the law

@@ -19,6 +19,7 @@ class Unit:
     first_line: int
     last_line: int     # the checker must fail at or before this line
     relation: str = "="
+    last_in_chain: bool = False
 
 
 @dataclass(frozen=True)
@@ -40,8 +41,9 @@ def _units(text: str) -> list[Unit]:
         elif isinstance(s, st.Chain):
             first = s.steps[0]
             units.append(Unit("start", s.pos.line, first.pos.end_line))
-            for step in s.steps:
-                units.append(Unit("step", step.pos.line, step.pos.end_line))
+            for i, step in enumerate(s.steps):
+                units.append(Unit("step", step.pos.line, step.pos.end_line,
+                                  last_in_chain=i == len(s.steps) - 1))
     return units
 
 
@@ -67,7 +69,13 @@ def _code_spans(line: str):
 _NUMBER = re.compile(r"(?<![A-Za-z_0-9])\d+")
 
 
-def mutants(text: str, deltas=(1, -1)):
+RULE_NAMES = ["reduce", "reciprocity", "negate", "inverse", "common_factor", "three_term",
+              "unfold", "value", "arithmetic"]
+_RULE = re.compile(r"\b(" + "|".join(RULE_NAMES) + r")\b")
+_OPERATOR_SWAPS = {"*": "/", "/": "*", "^": "*"}
+
+
+def mutants(text: str, deltas=(1, -1), operators=False, rules=False):
     lines = text.split("\n")
     by_line = {}
     for unit in _units(text):
@@ -93,11 +101,23 @@ def mutants(text: str, deltas=(1, -1)):
                     new = src[:col] + str(n + d) + src[lo + m.end():]
                     yield Mutant(_replace_line(lines, ln, new), unit, ln, col + 1, f"{n} -> {n + d}")
             for i, ch in enumerate(segment):
+                col = lo + i
                 if ch in "+-":
-                    col = lo + i
                     flipped = "-" if ch == "+" else "+"
                     new = src[:col] + flipped + src[col + 1:]
                     yield Mutant(_replace_line(lines, ln, new), unit, ln, col + 1, f"'{ch}' -> '{flipped}'")
+                elif operators and ch in _OPERATOR_SWAPS:
+                    new = src[:col] + _OPERATOR_SWAPS[ch] + src[col + 1:]
+                    yield Mutant(_replace_line(lines, ln, new), unit, ln, col + 1,
+                                 f"'{ch}' -> '{_OPERATOR_SWAPS[ch]}'")
+            if rules and unit.kind == "step" and " by " in segment:
+                by = lo + segment.rindex(" by ")
+                for m in _RULE.finditer(src, by):
+                    for other in RULE_NAMES:
+                        if other != m.group():
+                            new = src[:m.start()] + other + src[m.end():]
+                            yield Mutant(_replace_line(lines, ln, new), unit, ln, m.start() + 1,
+                                         f"rule {m.group()} -> {other}")
 
 
 def _replace_line(lines, ln, new):

@@ -157,6 +157,12 @@ def test_three_term_refuses_non_coprime_triples():
     assert msg == "the three-term law needs pairwise coprime a, b, c, but gcd(4, 6) = 2"
 
 
+def test_three_term_refuses_with_only_one_companion():
+    # found by the operator/rule mutation test: one other sum used to crash the rule
+    msg = refusal("three_term", ("dedekind", (F(3), F(5))), [("dedekind", (F(6), F(7)))])
+    assert msg.endswith("but the next line has no two other dedekind sums")
+
+
 def test_three_term_refuses_wrong_first_argument():
     target = [("dedekind", (F(5), F(7))), ("dedekind", (F(2), F(9)))]
     msg = refusal("three_term", ("dedekind", (F(3), F(5))), target)

@@ -159,13 +159,7 @@ class Evaluator:
         return self.call(node.name, args, node)
 
     def _ListExpr(self, node):
-        items = []
-        for item in node.items:
-            v = self.value(item)
-            if isinstance(v, tuple):
-                raise DomainError("a list inside a list is not supported").at(item)
-            items.append(v)
-        return tuple(items)
+        return tuple(self.value(item) for item in node.items)
 
     def _FiniteSum(self, node):
         lower = _integer(self.number(node.lower), "the lower end of a sum", node.lower)

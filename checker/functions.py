@@ -26,6 +26,8 @@ from .floor_sums import floor_sum as _floor_sum
 from .fourier_dedekind import fourier_dedekind
 from .frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from .limits import Limits
+from .periodic import constituents, periodic
+from .polytopes import lattice_points, lattice_points_inequalities
 from .partitions import (partitions, partitions_extended, polynomial_part as _polynomial_part,
                          quasipolynomial_cost, table_cost, check_parts)
 
@@ -35,8 +37,14 @@ __all__ = [
     "bernoulli", "bernoulli_polynomial", "periodic_bernoulli",
     "dedekind", "dedekind_rademacher", "generalized_dedekind", "fourier_dedekind",
     "partitions", "partitions_extended", "partitions_polynomial_part",
-    "frobenius", "nonrepresentable", "floor_sum",
+    "frobenius", "nonrepresentable", "floor_sum", "periodic", "constituents",
+    "lattice_points", "lattice_points_in",
 ]
+
+
+def lattice_points_in(t, rows) -> Fraction:
+    """#(tP intersected with Z^d) for P = {x : a.x <= b} given as rows [a1, ..., ad, b]."""
+    return lattice_points_inequalities(t, rows)
 
 
 def floor_sum(count, a, b, m) -> Fraction:
@@ -173,6 +181,15 @@ def _cost_lcm(*args):
     return ("integer_bits", bits, "the least common multiple")
 
 
+def _cost_polytope(t, rows):
+    if not isinstance(rows, tuple) or not rows or not isinstance(rows[0], tuple):
+        return None
+    d = len(rows[0]) - 1
+    t = _int_or_zero(t)
+    # slices: about t^(d-2) polygons, each a handful of floor sums
+    return ("terms", (t + 1) ** max(d - 2, 0) * len(rows) ** 2, f"slicing a {d}-dimensional polytope at t = {t}")
+
+
 def _spec(name, signature, definition, impl, arity, arithmetic=False, cost=None):
     return FunctionSpec(name, signature, definition, impl, arity, arithmetic,
                         cost or (lambda *args: None))
@@ -215,4 +232,14 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
           frobenius, (1, 1), False, _cost_frobenius),
     _spec("nonrepresentable", "[a1, ..., ad]", "how many positive integers are not combinations of A",
           nonrepresentable, (1, 1), False, _cost_frobenius),
+    _spec("periodic", "n, [c0, ..., c(L-1)]", "c_(n mod L)", periodic, (2, 2), True),
+    _spec("constituents", "n, [[c00, c01, ...], ...]",
+          "sum_j c_(r,j) n^j for r = n mod L: a quasi-polynomial by its constituents",
+          constituents, (2, 2), True),
+    _spec("lattice_points", "t, [[x1, y1], [x2, y2], ...]",
+          "lattice points in t times the convex hull of rational points in the plane",
+          lattice_points, (2, 2)),
+    _spec("lattice_points_in", "t, [[a1, ..., ad, b], ...]",
+          "lattice points in t P for the polytope P = {x : a.x <= b}, d = 2, 3 or 4",
+          lattice_points_in, (2, 2), False, _cost_polytope),
 ]}

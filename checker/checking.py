@@ -257,6 +257,91 @@ class _Replay:
                            end_column=pos.end_column if pos.end_line == pos.line else None,
                            claimed=rhs, exact=lhs))
 
+    def _Identity(self, stmt):
+        from .quasipolynomial import check_identity
+        if not self._claim_label(stmt.label, stmt):
+            return
+        if stmt.var in self.evaluator.env or stmt.var in REGISTRY:
+            raise CertificateError(f"the variable '{stmt.var}' already names a value or a function; "
+                                   "use a fresh name").at(stmt)
+        lower = None if stmt.lower is None else self._whole(stmt.lower, "the lower bound")
+        period = None if stmt.period is None else self._whole(stmt.period, "a claimed period")
+        degree = None if stmt.degree is None else self._whole(stmt.degree, "a claimed degree")
+        r = check_identity(stmt.lhs, stmt.rhs, stmt.var, lower, self.evaluator, self.limits, period, degree)
+        v = stmt.var
+        summary = (f"degree <= {r.degree}, period dividing {r.period}"
+                   + (f", a quasi-polynomial from {v} = {r.threshold} on" if r.threshold is not None else ""))
+        if r.ok:
+            self._ok()
+            self.report.notes.append(
+                f"line {stmt.pos.line}: identity holds: {summary}; {r.points} values compared "
+                f"({v} = {r.start}..{r.start + r.points - 1})")
+            return
+        name = f"identity '{stmt.label}'" if stmt.label else "the identity"
+        pos = stmt.rhs.pos
+        if r.problem:
+            self._fail(Failure(pos.line, pos.column, f"{name}: {r.problem}", [f"inferred: {summary}"],
+                               end_column=pos.end_column if pos.end_line == pos.line else None))
+            return
+        self._fail(Failure(pos.line, pos.column, f"{name} fails at {v} = {r.counterexample}",
+                           [f"left side:  {value_text(r.left)}", f"right side: {value_text(r.right)}",
+                            f"difference (right - left): {value_text(r.right - r.left)}",
+                            f"inferred: {summary}; the first {v} where the sides differ among "
+                            f"{v} = {r.start}..{r.start + r.points - 1}"],
+                           end_column=pos.end_column if pos.end_line == pos.line else None,
+                           claimed=r.right, exact=r.left))
+
+    def _whole(self, node, what) -> int:
+        v = self._value(node)
+        if v.denominator != 1:
+            raise CertificateError(f"{what} must be an integer, not {value_text(v)}").at(node)
+        return v.numerator
+
+    def _Witness(self, stmt):
+        from .frobenius import frobenius as kernel_frobenius
+        from .partitions import check_parts
+        if not self._claim_label(stmt.label, stmt):
+            return
+        lhs = stmt.lhs
+        if not (hasattr(lhs, "name") and lhs.name == "frobenius" and len(lhs.args) == 1):
+            raise CertificateError("a witness states frobenius([a1, ..., ad]) = g").at(lhs)
+        parts = check_parts(self.evaluator.value(lhs.args[0]), "frobenius")
+        g = self._whole(stmt.rhs, "the Frobenius number")
+        smallest = min(parts)
+        wanted = set(range(g + 1, g + smallest + 1))
+        problems = []
+        for rep in stmt.representations:
+            m = self._whole(rep.number, "a represented number")
+            why = _representation_problem(rep.combination, parts, m, self.evaluator)
+            if why:
+                problems.append((rep, f"{m} = ...: {why}"))
+            wanted.discard(m)
+        gap = self._call("partitions", (Fraction(g), tuple(Fraction(a) for a in parts)))
+        pos = stmt.rhs.pos
+        if problems:
+            rep, why = problems[0]
+            self._fail(Failure(rep.pos.line, rep.pos.column, f"the witness for frobenius is wrong: {why}",
+                               end_column=rep.pos.end_column if rep.pos.end_line == rep.pos.line else None))
+            return
+        if gap != 0:
+            self._fail(Failure(pos.line, pos.column, f"{g} is representable ({value_text(gap)} ways), "
+                               "so it is not the Frobenius number", claimed=Fraction(g)))
+            return
+        if wanted:
+            missing = ", ".join(str(m) for m in sorted(wanted)[:8])
+            self._fail(Failure(pos.line, pos.column,
+                               f"the witness must represent every integer from {g + 1} to {g + smallest}; "
+                               f"missing: {missing}", claimed=Fraction(g)))
+            return
+        # the witness proves it; the kernel's residue table must agree (second judgement)
+        exact = kernel_frobenius(parts)
+        if exact != g:
+            self._fail(Failure(pos.line, pos.column, f"the witness holds but the kernel computes "
+                               f"{value_text(exact)}: a checker bug, please report it", kind="checker bug",
+                               exit_code=3))
+            return
+        self._ok()
+
     def _remember_equality(self, label, lhs_node, rhs_node):
         self.facts.add_nodes(label, lhs_node, rhs_node)
 
@@ -334,6 +419,31 @@ class _Replay:
                         f"difference (claimed - exact): {_short(value_text(next_value - prev_value))}"]
         return Failure(line, column, message, details, kind="failed", end_column=end,
                        claimed=next_value, exact=prev_value)
+
+
+def _representation_problem(node, parts, m, ev) -> str:
+    """Why `node` is not a sum of non-negative multiples of parts adding up to m ('' if it is)."""
+    from . import expressions as ex
+    terms = node.terms if isinstance(node, ex.Sum) else ((1, node),)
+    total = 0
+    for sign, term in terms:
+        if sign < 0:
+            return "a representation adds multiples of parts; it has a minus sign"
+        factors = term.factors if isinstance(term, ex.Product) else ((False, term),)
+        values = []
+        for divide, f in factors:
+            if divide or not isinstance(f, ex.Num):
+                return "write each term as c*a with a whole number c >= 0 and a part a"
+            values.append(f.value)
+        if not any(v in parts for v in values):
+            return f"the term {'*'.join(map(str, values))} has no factor among the parts {list(parts)}"
+        product = 1
+        for v in values:
+            product *= v
+        total += product
+    if total != m:
+        return f"the terms add up to {total}, not {m}"
+    return ""
 
 
 def _closest(candidates, target):

@@ -142,6 +142,8 @@ def _cmd_check(ns, out, err) -> int:
         if ns.list_each:
             status = "verified" if report.ok else "not verified"
             print(f"{report.name}: {status} ({report.checked} claims and steps)", file=out)
+            for note in report.notes:
+                print(f"  {note}", file=out)
     print(summary_line(reports, None if ns.no_time else time.perf_counter() - start), file=out)
     return max((r.exit_code for r in reports), default=EXIT_OK)
 
@@ -168,7 +170,8 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("paths", nargs="*", metavar="PATH", help="*.qcert files, or folders to search")
     c.add_argument("--every-failure", action="store_true",
                    help="go on past the first failure and list every failing step")
-    c.add_argument("--list-each", action="store_true", help="print one verdict line per file")
+    c.add_argument("--list-each", action="store_true",
+                   help="print one verdict line per file, and how each identity was decided")
     c.add_argument("--limit", action="append", metavar="NAME=N", default=[],
                    help="raise or lower a budget, e.g. --limit terms=10000000")
     c.add_argument("--paranoid", action="store_true",

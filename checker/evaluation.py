@@ -57,10 +57,15 @@ class Evaluator:
         spec = REGISTRY.get(name)
         if spec is None:
             raise DomainError(_unknown_function(name)).at(node)
-        key = (name, args)
+        key = (name, _canonical(name, args))
         hit = self.memo.get(key)
         if hit is not None:
             return hit
+        if name == "partitions" and len(args) == 2:
+            value = self._from_partition_table(args)
+            if value is not None:
+                self._remember(key, value)
+                return value
         if name == "dedekind" and not self.paranoid and self._fill_euclid(args):
             hit = self.memo.get(key)
             if hit is not None:
@@ -193,6 +198,29 @@ class Evaluator:
             self.memo.clear()
         self.memo[key] = value
 
+    def _from_partition_table(self, args):
+        """p_A(n) from a table kept for A and grown as needed (identities ask for n = 0, 1, 2, ...)."""
+        from .partitions import check_parts, partitions_by_table
+        n, parts = args
+        if not (isinstance(n, Fraction) and n.denominator == 1 and isinstance(parts, tuple)):
+            return None
+        try:
+            parts = check_parts(parts)
+        except CertificateError:
+            return None
+        n = n.numerator
+        if n < 0:
+            return Fraction(0)
+        tables = self.__dict__.setdefault("_partition_tables", {})
+        table = tables.get(parts)
+        if table is None or n >= len(table):
+            size = max(n + 1, 2 * len(table) if table else 0)
+            if size * len(parts) > min(self.limits.terms, 4_000_000) or size > 1_000_000:
+                return None          # the kernel's own choice (quasi-polynomial) is cheaper
+            table = _table(parts, size)
+            tables[parts] = table
+        return Fraction(table[n])
+
     def _fill_euclid(self, args) -> bool:
         """For big arguments, compute s at every pair of the Euclid chain at once."""
         if len(args) != 2 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
@@ -208,6 +236,30 @@ class Evaluator:
 
 
 _MISSING = object()
+
+
+def _table(parts, size):
+    from itertools import accumulate
+    table = [1] + [0] * (size - 1)
+    for a in parts:
+        for r in range(min(a, size)):
+            table[r::a] = accumulate(table[r::a])
+    return table
+
+
+def _canonical(name, args):
+    """Memo key: periodic functions depend on their argument modulo the period only."""
+    try:
+        if name == "dedekind" and len(args) == 2 and args[1].denominator == 1 and args[1] >= 1 \
+                and args[0].denominator == 1:
+            return (args[0] % args[1], args[1])
+        if name == "fourier_dedekind" and len(args) == 3 and isinstance(args[1], tuple) \
+                and args[2].denominator == 1 and args[2] >= 1 and args[0].denominator == 1:
+            b = args[2]
+            return (args[0] % b, args[1], b)
+    except (AttributeError, TypeError):
+        pass
+    return args
 
 
 def _reduced(h, k):

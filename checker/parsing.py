@@ -194,6 +194,38 @@ class _Build(Transformer):
         rules = [c for c in children[3:] if isinstance(c, st.RuleRef)]
         return st.Step(expr, tuple(rules), _span(children))
 
+    def identity(self, children):
+        label = children[1]
+        var, lower = children[3]
+        period = degree = None
+        for c in children[4:]:
+            if isinstance(c, tuple) and c[0] == "period":
+                period = c[1]
+            elif isinstance(c, tuple) and c[0] == "degree":
+                degree = c[1]
+        lhs, rhs = children[-3], children[-1]
+        return st.Identity(label, var, lower, period, degree, lhs, rhs, _span(children))
+
+    def from_bound(self, children):
+        return (str(children[0]), children[2])
+
+    def every_integer(self, children):
+        return (str(children[0]), None)
+
+    def claimed_period(self, children):
+        return ("period", children[0])
+
+    def claimed_degree(self, children):
+        return ("degree", children[0])
+
+    def witness(self, children):
+        label, lhs, rhs = children[1], children[2], children[4]
+        reps = tuple(c for c in children[6:] if isinstance(c, st.Representation))
+        return st.Witness(label, lhs, rhs, reps, _span(children))
+
+    def representation(self, children):
+        return st.Representation(children[0], children[2], _span(children))
+
     def rule(self, children):
         return st.RuleRef(str(children[0]), None, _tpos(children[0]))
 
@@ -246,7 +278,7 @@ _WORDS = {
     "$END": "the end of the text",
 }
 
-_STATEMENT_WORDS = {"title", "source", "let", "claim", "chain"}
+_STATEMENT_WORDS = {"title", "source", "let", "claim", "chain", "identity", "witness"}
 
 
 def _describe_terminal(name: str) -> str:
@@ -293,7 +325,8 @@ def _end_position(text: str) -> tuple[int, int]:
 
 _LANGUAGE_CHARACTERS = set("+-*/^()[],.=<>!:#\"_'\u2212\u00b7\u00d7\u2264\u2265\u2260\u2261 \t\r\n")
 _NOT_IN_EXPRESSIONS = {"EQUALS", "LESS_EQUAL", "GREATER_EQUAL", "NOT_EQUAL", "LESS", "GREATER",
-                       "CONGRUENT", "BY", "MOD", "TITLE", "SOURCE", "LET", "CLAIM", "CHAIN", "COLON"}
+                       "CONGRUENT", "BY", "MOD", "TITLE", "SOURCE", "LET", "CLAIM", "CHAIN", "COLON",
+                       "IDENTITY", "WITNESS", "FOR", "ALL", "PERIOD", "DEGREE"}
 
 
 def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> SyntaxProblem:

@@ -273,3 +273,39 @@ def lattice_points_inequalities(t, rows, limits_terms: int | None = None) -> Fra
         _range_first(dilated)
         return Fraction(polygon_count(pts))
     return Fraction(_count(dilated))
+
+
+def _solve(rows):
+    """The unique solution of the square system sum_j a_ij x_j = b_i, or None."""
+    m = [list(r) for r in rows]
+    n = len(m)
+    for col in range(n):
+        pivot = next((r for r in range(col, n) if m[r][col] != 0), None)
+        if pivot is None:
+            return None
+        m[col], m[pivot] = m[pivot], m[col]
+        for r in range(n):
+            if r != col and m[r][col] != 0:
+                f = m[r][col] / m[col][col]
+                m[r] = [x - f * y for x, y in zip(m[r], m[col])]
+    return [m[i][-1] / m[i][i] for i in range(n)]
+
+
+def polytope_vertices(rows):
+    """Vertices of {x : a.x <= b}: feasible solutions of d tight inequalities."""
+    d = len(rows[0]) - 1
+    found = set()
+    for subset in combinations(rows, d):
+        x = _solve(subset)
+        if x is not None and all(sum(a * v for a, v in zip(r[:-1], x)) <= r[-1] for r in rows):
+            found.add(tuple(x))
+    return sorted(found)
+
+
+def inequality_vertex_denominator(rows) -> int:
+    """Least common denominator of the vertices of {x : a.x <= b}."""
+    from math import lcm
+    vertices = polytope_vertices(rows)
+    if not vertices:
+        return 1
+    return lcm(*[c.denominator for v in vertices for c in v])

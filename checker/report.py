@@ -34,6 +34,7 @@ class Report:
     checked: int = 0                  # claims and steps verified
     failures: list = field(default_factory=list)
     seconds: float = 0.0
+    notes: list = field(default_factory=list)     # how verified statements were decided
 
     @property
     def ok(self) -> bool:

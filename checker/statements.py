@@ -7,7 +7,7 @@ from typing import Optional, Union
 from .expressions import NOWHERE, Expr, Pos
 
 __all__ = ["Title", "Source", "Let", "Claim", "Congruence", "RuleRef", "Step",
-           "Chain", "Statement", "Certificate"]
+           "Chain", "Identity", "Representation", "Witness", "Statement", "Certificate"]
 
 
 @dataclass(frozen=True)
@@ -72,7 +72,37 @@ class Chain:
     pos: Pos = NOWHERE
 
 
-Statement = Union[Title, Source, Let, Claim, Congruence, Chain]
+@dataclass(frozen=True)
+class Identity:
+    """for var >= lower (or for all var when lower is None): lhs = rhs."""
+    label: Optional[str]
+    var: str
+    lower: Optional[Expr]
+    period: Optional[Expr]
+    degree: Optional[Expr]
+    lhs: Expr
+    rhs: Expr
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Representation:
+    number: Expr
+    combination: Expr
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Witness:
+    """frobenius(A) = g, with representations of g+1, ..., g+min(A)."""
+    label: Optional[str]
+    lhs: Expr
+    rhs: Expr
+    representations: tuple
+    pos: Pos = NOWHERE
+
+
+Statement = Union[Title, Source, Let, Claim, Congruence, Chain, Identity, Witness]
 
 
 @dataclass(frozen=True)

@@ -1,0 +1,504 @@
+"""Deciding identities between quasi-polynomials in one integer variable.
+
+A function f on the integers is a quasi-polynomial of degree <= D and period
+dividing L from the threshold T on when, for each residue r mod L, f agrees
+with a polynomial of degree <= D on {n >= T : n = r (mod L)}.  Two such
+functions agree for all n >= T as soon as they agree at the (D + 1) L
+consecutive integers T, ..., T + (D + 1) L - 1: on each residue class that is
+D + 1 points of a polynomial of degree <= D (Stanley, *Enumerative
+Combinatorics I*, 4.4; Beck & Robins, ch. 3).
+
+``shape`` infers (D, L, T) for an expression from structural rules (sums take
+the larger degree and the lcm of periods, products add degrees, p_A(an + c)
+has degree d - 1 and period lcm(A) once an + c > -(a_1 + ... + a_d), a
+sawtooth of (p n + q) has degree 0 and the denominator of p as period, ...).
+An expression with n where no rule applies (n in a denominator, n as a
+modulus, n inside a function not known to be quasi-polynomial) is refused
+with the reason.  ``check_identity`` then compares both sides at every point
+below the threshold and at (D + 1) L consecutive points from it.
+
+>>> from checker.parsing import parse_expression
+>>> from checker.evaluation import Evaluator
+>>> s = shape(parse_expression("partitions(n, [1, 2]) - floor(n/2)"), "n", Evaluator())
+>>> (s.degree, s.period, s.threshold)
+(1, 2, -2)
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+from math import comb, gcd, lcm
+from typing import Optional
+
+from . import expressions as ex
+from .errors import BudgetExceeded, CertificateError, DomainError
+from .partitions import PartitionQuasiPolynomial, check_parts
+
+__all__ = ["Shape", "shape", "check_identity", "IdentityResult", "NotQuasiPolynomial"]
+
+
+class NotQuasiPolynomial(DomainError):
+    """An expression that quasicert cannot show to be a quasi-polynomial in the variable."""
+
+
+@dataclass(frozen=True)
+class Shape:
+    degree: int
+    period: int
+    threshold: Optional[int] = None     # None: a quasi-polynomial on all integers
+
+
+def _join_threshold(a, b):
+    if a is None:
+        return b
+    if b is None:
+        return a
+    return max(a, b)
+
+
+def _combine(a: Shape, b: Shape, degree: int) -> Shape:
+    return Shape(degree, lcm(a.period, b.period), _join_threshold(a.threshold, b.threshold))
+
+
+CONSTANT = Shape(0, 1)
+
+
+def mentions(node, var: str) -> bool:
+    stack = [node]
+    while stack:
+        x = stack.pop()
+        if isinstance(x, ex.Name):
+            if x.name == var:
+                return True
+        elif isinstance(x, ex.Num):
+            continue
+        elif isinstance(x, ex.Neg):
+            stack.append(x.operand)
+        elif isinstance(x, ex.Sum):
+            stack.extend(t for _, t in x.terms)
+        elif isinstance(x, ex.Product):
+            stack.extend(f for _, f in x.factors)
+        elif isinstance(x, ex.Power):
+            stack.extend((x.base, x.exponent))
+        elif isinstance(x, (ex.Call,)):
+            stack.extend(x.args)
+        elif isinstance(x, ex.ListExpr):
+            stack.extend(x.items)
+        elif isinstance(x, ex.FiniteSum):
+            stack.extend((x.lower, x.upper, x.body))
+    return False
+
+
+def polynomial(node, var: str, ev) -> Optional[list]:
+    """Coefficients [c0, c1, ...] when `node` is a plain polynomial in var, else None."""
+    if not mentions(node, var):
+        v = ev.value(node)
+        return [v] if isinstance(v, Fraction) else None
+    if isinstance(node, ex.Name):
+        return [Fraction(0), Fraction(1)]
+    if isinstance(node, ex.Neg):
+        p = polynomial(node.operand, var, ev)
+        return None if p is None else [-c for c in p]
+    if isinstance(node, ex.Sum):
+        total = [Fraction(0)]
+        for sign, term in node.terms:
+            p = polynomial(term, var, ev)
+            if p is None:
+                return None
+            total = _padd(total, [sign * c for c in p])
+        return total
+    if isinstance(node, ex.Product):
+        acc = [Fraction(1)]
+        for divide, factor in node.factors:
+            if divide:
+                if mentions(factor, var):
+                    return None
+                v = ev.number(factor)
+                if v == 0:
+                    raise DomainError("division by zero: this divisor is 0").at(factor)
+                acc = [c / v for c in acc]
+            else:
+                p = polynomial(factor, var, ev)
+                if p is None:
+                    return None
+                acc = _pmul(acc, p)
+        return acc
+    if isinstance(node, ex.Power) and not mentions(node.exponent, var):
+        e = ev.number(node.exponent)
+        if e.denominator != 1 or e < 0 or e > 64:
+            return None
+        base = polynomial(node.base, var, ev)
+        if base is None:
+            return None
+        acc = [Fraction(1)]
+        for _ in range(e.numerator):
+            acc = _pmul(acc, base)
+        return acc
+    return None
+
+
+def _padd(a, b):
+    out = [Fraction(0)] * max(len(a), len(b))
+    for i, c in enumerate(a):
+        out[i] += c
+    for i, c in enumerate(b):
+        out[i] += c
+    return _trim(out)
+
+
+def _pmul(a, b):
+    out = [Fraction(0)] * (len(a) + len(b) - 1)
+    for i, x in enumerate(a):
+        if x:
+            for j, y in enumerate(b):
+                out[i + j] += x * y
+    return _trim(out)
+
+
+def _trim(p):
+    while len(p) > 1 and p[-1] == 0:
+        p.pop()
+    return p
+
+
+def _refuse(node, why):
+    raise NotQuasiPolynomial(why).at(node)
+
+
+def _linear(node, var, ev, integer: bool, what: str):
+    """(p, q) with node = p*var + q; integers when `integer`."""
+    p = polynomial(node, var, ev)
+    if p is None or len(p) > 2:
+        _refuse(node, f"{what} must be linear in {var} (like 3*{var} + 1) for quasicert to know its period")
+    a = p[1] if len(p) > 1 else Fraction(0)
+    b = p[0]
+    if integer and (a.denominator != 1 or b.denominator != 1):
+        _refuse(node, f"{what} must be an integer for every {var}: write it as a {var} + c with integers a, c")
+    return a, b
+
+
+def _constant(node, var, ev, what):
+    if mentions(node, var):
+        _refuse(node, f"{what} must not depend on {var}")
+    return ev.value(node)
+
+
+def shape(node, var: str, ev) -> Shape:
+    """(degree bound, period, threshold) of an expression as a quasi-polynomial in var."""
+    if not mentions(node, var):
+        return CONSTANT
+    if isinstance(node, ex.Name):
+        return Shape(1, 1)
+    if isinstance(node, ex.Neg):
+        return shape(node.operand, var, ev)
+    if isinstance(node, ex.Sum):
+        out = CONSTANT
+        for _, term in node.terms:
+            s = shape(term, var, ev)
+            out = _combine(out, s, max(out.degree, s.degree))
+        return out
+    if isinstance(node, ex.Product):
+        out = CONSTANT
+        for divide, factor in node.factors:
+            if divide and mentions(factor, var):
+                _refuse(factor, f"{var} stands in a denominator, so this is not a quasi-polynomial in {var}")
+            s = shape(factor, var, ev)
+            out = _combine(out, s, out.degree + s.degree)
+        return out
+    if isinstance(node, ex.Power):
+        if mentions(node.exponent, var):
+            _refuse(node.exponent, f"{var} stands in an exponent, so this is not a quasi-polynomial in {var}")
+        e = ev.number(node.exponent)
+        if e.denominator != 1 or e < 0:
+            _refuse(node, f"a negative or fractional power of an expression in {var} is not a quasi-polynomial")
+        s = shape(node.base, var, ev)
+        return Shape(s.degree * e.numerator, s.period, s.threshold)
+    if isinstance(node, ex.Call):
+        rule = _CALL_RULES.get(node.name)
+        if rule is None:
+            _refuse(node, f"quasicert does not know {node.name} to be a quasi-polynomial in {var}")
+        return rule(node, var, ev)
+    if isinstance(node, ex.FiniteSum):
+        _refuse(node, f"a finite sum whose terms or ends depend on {var} is not supported in identities")
+    _refuse(node, f"a list that depends on {var} is not a number")
+
+
+# -- the rules for function calls -------------------------------------------
+
+def _fractional_period(arg, var, ev, what) -> tuple[int, int]:
+    """(degree, period of the fractional part) of a polynomial argument P(n).
+
+    With D the common denominator of P's coefficients, D P(n) is an integer
+    polynomial, so D P(n) mod D, and with it {P(n)}, has period D.
+    """
+    p = polynomial(arg, var, ev)
+    if p is None:
+        _refuse(arg, f"{what} must be a polynomial in {var}, or a periodic expression, for quasicert "
+                     "to know its period")
+    return len(p) - 1, lcm(*[c.denominator for c in p])
+
+
+def _periodic_of_linear(node, var, ev, arg, what, integer=False) -> Shape:
+    """A function of period 1 (frac, sawtooth, Bbar_p) applied to `arg`."""
+    s = shape(arg, var, ev)
+    if s.degree == 0:
+        return Shape(0, s.period, s.threshold)
+    _, period = _fractional_period(arg, var, ev, what)
+    return Shape(0, period)
+
+
+def _floor_like(node, var, ev):
+    (arg,) = node.args
+    s = shape(arg, var, ev)
+    if s.degree == 0:
+        return Shape(0, s.period, s.threshold)
+    degree, period = _fractional_period(arg, var, ev, f"the argument of {node.name}")
+    return Shape(degree, period)
+
+
+def _frac_like(node, var, ev):
+    return _periodic_of_linear(node, var, ev, node.args[-1], f"the argument of {node.name}")
+
+
+def _residue_like(node, var, ev):
+    """mod(x, m) and gcd(x, m): period |m| in x, for integer polynomials x."""
+    if len(node.args) != 2:
+        _refuse(node, f"{node.name} in an identity takes two arguments")
+    x, m = node.args
+    m = _constant(m, var, ev, f"the modulus of {node.name}")
+    if not isinstance(m, Fraction) or m.denominator != 1 or m == 0:
+        _refuse(node, f"the second argument of {node.name} must be a nonzero integer")
+    s = shape(x, var, ev)
+    if s.degree == 0:
+        return Shape(0, s.period, s.threshold)
+    p = polynomial(x, var, ev)
+    if p is None or any(c.denominator != 1 for c in p):
+        _refuse(x, f"the first argument of {node.name} must be a polynomial in {var} with integer coefficients")
+    return Shape(0, abs(m.numerator))
+
+
+def _modulus(node, arg, var, ev, what):
+    k = _constant(arg, var, ev, what)
+    if not isinstance(k, Fraction) or k.denominator != 1 or k < 1:
+        _refuse(node, f"{what} must be a positive integer")
+    return k.numerator
+
+
+def _dedekind(node, var, ev):
+    if len(node.args) != 2:
+        _refuse(node, "dedekind takes two arguments")
+    k = _modulus(node, node.args[1], var, ev, "the second argument of dedekind")
+    _linear(node.args[0], var, ev, True, "the first argument of dedekind")
+    return Shape(0, k)
+
+
+def _generalized(node, var, ev):
+    if len(node.args) != 3:
+        _refuse(node, "generalized_dedekind takes three arguments")
+    _constant(node.args[0], var, ev, "the order of generalized_dedekind")
+    k = _modulus(node, node.args[2], var, ev, "the third argument of generalized_dedekind")
+    _linear(node.args[1], var, ev, True, "the second argument of generalized_dedekind")
+    return Shape(0, k)
+
+
+def _fourier(node, var, ev):
+    if len(node.args) != 3:
+        _refuse(node, "fourier_dedekind takes three arguments")
+    _constant(node.args[1], var, ev, "the list of fourier_dedekind")
+    b = _modulus(node, node.args[2], var, ev, "the modulus of fourier_dedekind")
+    _linear(node.args[0], var, ev, True, "the first argument of fourier_dedekind")
+    return Shape(0, b)
+
+
+def _parts_of(node, arg, var, ev):
+    parts = _constant(arg, var, ev, f"the list of parts of {node.name}")
+    try:
+        return check_parts(parts, node.name)
+    except CertificateError as e:
+        raise e.at(arg)
+
+
+def _partitions(node, var, ev):
+    if len(node.args) != 2:
+        _refuse(node, "partitions takes two arguments")
+    parts = _parts_of(node, node.args[1], var, ev)
+    a, c = _linear(node.args[0], var, ev, True, "the first argument of partitions")
+    if a <= 0:
+        _refuse(node.args[0], f"the first argument of partitions must grow with {var} (a {var} + c with a >= 1)")
+    # p_A(m) = P_A(m) once m > -(a_1 + ... + a_d): a n + c > -S  <=>  n >= floor((-S - c)/a) + 1
+    total = sum(parts)
+    threshold = (-total - c.numerator) // a.numerator + 1
+    period = lcm(*parts)
+    return Shape(len(parts) - 1, period // gcd(period, a.numerator), threshold)
+
+
+def _partitions_everywhere(node, var, ev):
+    if len(node.args) != 2:
+        _refuse(node, f"{node.name} takes two arguments")
+    parts = _parts_of(node, node.args[1], var, ev)
+    a, _ = _linear(node.args[0], var, ev, True, f"the first argument of {node.name}")
+    period = 1 if node.name == "partitions_polynomial_part" else lcm(*parts)
+    return Shape(len(parts) - 1, period // gcd(period, a.numerator) if a else 1)
+
+
+def _bernoulli(node, var, ev):
+    if len(node.args) == 1:
+        _refuse(node, f"a Bernoulli number with an index depending on {var} is not a quasi-polynomial")
+    j = _constant(node.args[0], var, ev, "the degree of a Bernoulli polynomial")
+    s = shape(node.args[1], var, ev)
+    return Shape(s.degree * j.numerator, s.period, s.threshold)
+
+
+def _periodic_bernoulli(node, var, ev):
+    _constant(node.args[0], var, ev, "the index of periodic_bernoulli")
+    return _periodic_of_linear(node, var, ev, node.args[1], "the argument of periodic_bernoulli")
+
+
+def _binomial(node, var, ev):
+    j = _constant(node.args[1], var, ev, "the lower index of binomial")
+    s = shape(node.args[0], var, ev)
+    return Shape(s.degree * max(j.numerator, 0), s.period, s.threshold)
+
+
+def _periodic(node, var, ev):
+    values = _constant(node.args[1], var, ev, "the list of periodic")
+    if not isinstance(values, tuple) or not values:
+        _refuse(node, "periodic needs a non-empty list")
+    a, _ = _linear(node.args[0], var, ev, True, "the first argument of periodic")
+    L = len(values)
+    return Shape(0, L // gcd(L, a.numerator) if a else 1)
+
+
+def _constituents(node, var, ev):
+    table = _constant(node.args[1], var, ev, "the table of constituents")
+    if not isinstance(table, tuple) or not table or not all(isinstance(r, tuple) and r for r in table):
+        _refuse(node, "constituents needs a list of coefficient lists")
+    p = polynomial(node.args[0], var, ev)
+    if p != [Fraction(0), Fraction(1)]:
+        _refuse(node.args[0], f"the first argument of constituents must be {var} itself")
+    return Shape(max(len(r) for r in table) - 1, len(table))
+
+
+def _lattice(node, var, ev):
+    from .polytopes import check_points, vertex_denominator
+    pts = _constant(node.args[1], var, ev, "the vertices of lattice_points")
+    try:
+        pts = check_points(pts)
+    except CertificateError as e:
+        raise e.at(node.args[1])
+    p = polynomial(node.args[0], var, ev)
+    if p != [Fraction(0), Fraction(1)]:
+        _refuse(node.args[0], f"the dilation factor must be {var} itself")
+    return Shape(2, vertex_denominator(pts), 0)
+
+
+def _lattice_in(node, var, ev):
+    from .polytopes import check_inequalities, inequality_vertex_denominator
+    rows = _constant(node.args[1], var, ev, "the inequalities of lattice_points_in")
+    try:
+        dim, rows = check_inequalities(rows)
+    except CertificateError as e:
+        raise e.at(node.args[1])
+    p = polynomial(node.args[0], var, ev)
+    if p != [Fraction(0), Fraction(1)]:
+        _refuse(node.args[0], f"the dilation factor must be {var} itself")
+    return Shape(dim, inequality_vertex_denominator(rows), 0)
+
+
+_CALL_RULES = {
+    "floor": _floor_like, "ceil": _floor_like,
+    "frac": _frac_like, "sawtooth": _frac_like,
+    "mod": _residue_like, "gcd": _residue_like,
+    "dedekind": _dedekind, "generalized_dedekind": _generalized, "fourier_dedekind": _fourier,
+    "partitions": _partitions, "partitions_extended": _partitions_everywhere,
+    "partitions_polynomial_part": _partitions_everywhere,
+    "bernoulli": _bernoulli, "periodic_bernoulli": _periodic_bernoulli, "binomial": _binomial,
+    "periodic": _periodic, "constituents": _constituents,
+    "lattice_points": _lattice, "lattice_points_in": _lattice_in,
+}
+
+
+# -- deciding an identity ----------------------------------------------------
+
+@dataclass
+class IdentityResult:
+    ok: bool
+    degree: int
+    period: int
+    start: int                       # first value checked
+    points: int                      # how many values were compared
+    threshold: Optional[int]
+    counterexample: Optional[int] = None
+    left: Optional[Fraction] = None
+    right: Optional[Fraction] = None
+    problem: str = ""                # a claimed period or degree that does not hold
+
+
+def _values(node, var, ns, ev):
+    out = []
+    for n in ns:
+        ev.env[var] = Fraction(n)
+        out.append(ev.number(node))
+    return out
+
+
+def _check_claimed(node, side, var, s: Shape, start, ev, period, degree, limits):
+    """Does `node` have period dividing `period` and degree <= `degree` from `start` on?
+
+    The (degree+1)-th difference with step `period` is a quasi-polynomial of
+    degree <= s.degree and period s.period: zero iff zero at that many points.
+    """
+    count = (s.degree + 1) * s.period
+    span = (degree + 1) * period
+    limits.require("terms", count + span, f"verifying the claimed period and degree of the {side} side")
+    values = _values(node, var, range(start, start + count + span), ev)
+    for i in range(count):
+        diff = sum((-1) ** j * comb(degree + 1, j) * values[i + j * period] for j in range(degree + 2))
+        if diff:
+            return (f"the {side} side does not have period {period} and degree <= {degree}: at "
+                    f"{var} = {start + i} its difference of order {degree + 1} with step {period} is {diff}")
+    return ""
+
+
+def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
+                   claimed_period: Optional[int] = None, claimed_degree: Optional[int] = None) -> IdentityResult:
+    """Decide `lhs = rhs for all var >= lower` (all integers when lower is None)."""
+    left, right = shape(lhs, var, ev), shape(rhs, var, ev)
+    degree = max(left.degree, right.degree)
+    period = lcm(left.period, right.period)
+    threshold = _join_threshold(left.threshold, right.threshold)
+    if lower is None and threshold is not None:
+        side = lhs if left.threshold is not None else rhs
+        raise NotQuasiPolynomial(
+            f"this side is a quasi-polynomial in {var} only from {var} = {threshold} on, so an identity "
+            f"for all {var} cannot be decided; state it for {var} >= some bound").at(side)
+    start = 0 if lower is None else lower if threshold is None else max(lower, threshold)
+    below = [] if lower is None else list(range(lower, start))
+    block = (degree + 1) * period
+    limits.require("terms", block + len(below), f"an identity of degree {degree} and period {period}")
+    ns = below + list(range(start, start + block))
+    result = IdentityResult(True, degree, period, ns[0] if ns else start, len(ns), threshold)
+    saved = ev.env.get(var)
+    try:
+        for n in ns:
+            ev.env[var] = Fraction(n)
+            a, b = ev.number(lhs), ev.number(rhs)
+            if a != b:
+                result.ok, result.counterexample, result.left, result.right = False, n, a, b
+                return result
+        if claimed_period is not None or claimed_degree is not None:
+            p = claimed_period if claimed_period is not None else period
+            d = claimed_degree if claimed_degree is not None else degree
+            if p < 1 or d < 0:
+                raise DomainError("a claimed period must be >= 1 and a claimed degree >= 0")
+            for node, s, side in ((lhs, left, "left"), (rhs, right, "right")):
+                problem = _check_claimed(node, side, var, s, start, ev, p, d, limits)
+                if problem:
+                    result.ok, result.problem = False, problem
+                    return result
+    finally:
+        if saved is None:
+            ev.env.pop(var, None)
+        else:
+            ev.env[var] = saved
+    return result

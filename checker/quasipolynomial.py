@@ -2,11 +2,17 @@
 
 A function f on the integers is a quasi-polynomial of degree <= D and period
 dividing L from the threshold T on when, for each residue r mod L, f agrees
-with a polynomial of degree <= D on {n >= T : n = r (mod L)}.  Two such
-functions agree for all n >= T as soon as they agree at the (D + 1) L
-consecutive integers T, ..., T + (D + 1) L - 1: on each residue class that is
-D + 1 points of a polynomial of degree <= D (Stanley, *Enumerative
-Combinatorics I*, 4.4; Beck & Robins, ch. 3).
+with a polynomial of degree <= D on {n >= T : n = r (mod L)}.  Equivalently
+f(n) = sum over L-th roots of unity z of P_z(n) z^n with deg P_z <= D
+(Stanley, *Enumerative Combinatorics I*, 4.4).  If only the roots in a set Z
+occur, f satisfies the linear recurrence with characteristic polynomial
+prod_{z in Z} (x - z)^(D+1), of order K = (D + 1)|Z| and nonzero constant
+term, so f vanishes from T on as soon as it vanishes at T, ..., T + K - 1.
+quasicert tracks Z as a set of orders ("frequencies"): a sum of
+quasi-polynomials has the union, a product the pairwise lcms, p_A(n) the
+parts a_i (the poles of its generating function), a function of period b the
+single order b.  K is at most (D + 1) L, and often far smaller: for p_A with
+parts near 100 it is a few thousand where L is near 10^8.
 
 ``shape`` infers (D, L, T) for an expression from structural rules (sums take
 the larger degree and the lcm of periods, products add degrees, p_A(an + c)
@@ -46,6 +52,55 @@ class Shape:
     degree: int
     period: int
     threshold: Optional[int] = None     # None: a quasi-polynomial on all integers
+    orders: frozenset = None            # the roots of unity z^n that may occur, by order
+
+    def __post_init__(self):
+        if self.orders is None:
+            object.__setattr__(self, "orders", frozenset({self.period}))
+
+
+_MAX_ORDERS = 64
+
+
+def _product_orders(a: frozenset, b: frozenset) -> frozenset:
+    out = frozenset(lcm(x, y) for x in a for y in b)
+    if len(out) > _MAX_ORDERS:
+        return frozenset({lcm(*out)})
+    return out
+
+
+def _sum_orders(a: frozenset, b: frozenset) -> frozenset:
+    out = a | b
+    if len(out) > _MAX_ORDERS:
+        return frozenset({lcm(*out)})
+    return out
+
+
+def root_count(orders: frozenset) -> int:
+    """|Z| for Z the roots of unity whose order divides some element of `orders`."""
+    if all(b <= 10**6 for b in orders):
+        divisors = set()
+        for b in orders:
+            i = 1
+            while i * i <= b:
+                if b % i == 0:
+                    divisors.update((i, b // i))
+                i += 1
+        return sum(_phi(e) for e in divisors)
+    return min(sum(orders), lcm(*orders))
+
+
+def _phi(m: int) -> int:
+    result, p, x = m, 2, m
+    while p * p <= x:
+        if x % p == 0:
+            while x % p == 0:
+                x //= p
+            result -= result // p
+        p += 1
+    if x > 1:
+        result -= result // x
+    return result
 
 
 def _join_threshold(a, b):
@@ -56,8 +111,9 @@ def _join_threshold(a, b):
     return max(a, b)
 
 
-def _combine(a: Shape, b: Shape, degree: int) -> Shape:
-    return Shape(degree, lcm(a.period, b.period), _join_threshold(a.threshold, b.threshold))
+def _combine(a: Shape, b: Shape, degree: int, product: bool = False) -> Shape:
+    orders = _product_orders(a.orders, b.orders) if product else _sum_orders(a.orders, b.orders)
+    return Shape(degree, lcm(a.period, b.period), _join_threshold(a.threshold, b.threshold), orders)
 
 
 CONSTANT = Shape(0, 1)
@@ -203,7 +259,7 @@ def shape(node, var: str, ev) -> Shape:
             if divide and mentions(factor, var):
                 _refuse(factor, f"{var} stands in a denominator, so this is not a quasi-polynomial in {var}")
             s = shape(factor, var, ev)
-            out = _combine(out, s, out.degree + s.degree)
+            out = _combine(out, s, out.degree + s.degree, product=True)
         return out
     if isinstance(node, ex.Power):
         if mentions(node.exponent, var):
@@ -212,7 +268,7 @@ def shape(node, var: str, ev) -> Shape:
         if e.denominator != 1 or e < 0:
             _refuse(node, f"a negative or fractional power of an expression in {var} is not a quasi-polynomial")
         s = shape(node.base, var, ev)
-        return Shape(s.degree * e.numerator, s.period, s.threshold)
+        return _power_shape(s, e.numerator)
     if isinstance(node, ex.Call):
         rule = _CALL_RULES.get(node.name)
         if rule is None:
@@ -221,6 +277,15 @@ def shape(node, var: str, ev) -> Shape:
     if isinstance(node, ex.FiniteSum):
         _refuse(node, f"a finite sum whose terms or ends depend on {var} is not supported in identities")
     _refuse(node, f"a list that depends on {var} is not a number")
+
+
+def _power_shape(s: Shape, e: int) -> Shape:
+    orders = frozenset({1})
+    for _ in range(min(e, 8)):
+        orders = _product_orders(orders, s.orders)
+    if e > 8:
+        orders = frozenset({lcm(*orders)})
+    return Shape(s.degree * e, s.period, s.threshold, orders)
 
 
 # -- the rules for function calls -------------------------------------------
@@ -253,7 +318,7 @@ def _floor_like(node, var, ev):
     if s.degree == 0:
         return Shape(0, s.period, s.threshold)
     degree, period = _fractional_period(arg, var, ev, f"the argument of {node.name}")
-    return Shape(degree, period)
+    return Shape(degree, period, None, frozenset({1, period}))
 
 
 def _frac_like(node, var, ev):
@@ -329,7 +394,10 @@ def _partitions(node, var, ev):
     total = sum(parts)
     threshold = (-total - c.numerator) // a.numerator + 1
     period = lcm(*parts)
-    return Shape(len(parts) - 1, period // gcd(period, a.numerator), threshold)
+    # the poles of 1/prod(1 - x^a_i) are roots of unity of order dividing some a_i;
+    # n -> a n + c raises each to the power a
+    orders = frozenset(p // gcd(p, a.numerator) for p in parts)
+    return Shape(len(parts) - 1, period // gcd(period, a.numerator), threshold, orders)
 
 
 def _partitions_everywhere(node, var, ev):
@@ -337,8 +405,11 @@ def _partitions_everywhere(node, var, ev):
         _refuse(node, f"{node.name} takes two arguments")
     parts = _parts_of(node, node.args[1], var, ev)
     a, _ = _linear(node.args[0], var, ev, True, f"the first argument of {node.name}")
-    period = 1 if node.name == "partitions_polynomial_part" else lcm(*parts)
-    return Shape(len(parts) - 1, period // gcd(period, a.numerator) if a else 1)
+    if node.name == "partitions_polynomial_part" or not a:
+        return Shape(len(parts) - 1, 1)
+    period = lcm(*parts)
+    orders = frozenset(p // gcd(p, abs(a.numerator)) for p in parts)
+    return Shape(len(parts) - 1, period // gcd(period, a.numerator), None, orders)
 
 
 def _bernoulli(node, var, ev):
@@ -346,7 +417,7 @@ def _bernoulli(node, var, ev):
         _refuse(node, f"a Bernoulli number with an index depending on {var} is not a quasi-polynomial")
     j = _constant(node.args[0], var, ev, "the degree of a Bernoulli polynomial")
     s = shape(node.args[1], var, ev)
-    return Shape(s.degree * j.numerator, s.period, s.threshold)
+    return _power_shape(s, j.numerator)
 
 
 def _periodic_bernoulli(node, var, ev):
@@ -357,7 +428,7 @@ def _periodic_bernoulli(node, var, ev):
 def _binomial(node, var, ev):
     j = _constant(node.args[1], var, ev, "the lower index of binomial")
     s = shape(node.args[0], var, ev)
-    return Shape(s.degree * max(j.numerator, 0), s.period, s.threshold)
+    return _power_shape(s, max(j.numerator, 0))
 
 
 def _periodic(node, var, ev):
@@ -448,7 +519,7 @@ def _check_claimed(node, side, var, s: Shape, start, ev, period, degree, limits)
     The (degree+1)-th difference with step `period` is a quasi-polynomial of
     degree <= s.degree and period s.period: zero iff zero at that many points.
     """
-    count = (s.degree + 1) * s.period
+    count = (s.degree + 1) * root_count(s.orders)
     span = (degree + 1) * period
     limits.require("terms", count + span, f"verifying the claimed period and degree of the {side} side")
     values = _values(node, var, range(start, start + count + span), ev)
@@ -466,6 +537,7 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
     left, right = shape(lhs, var, ev), shape(rhs, var, ev)
     degree = max(left.degree, right.degree)
     period = lcm(left.period, right.period)
+    orders = _sum_orders(left.orders, right.orders)
     threshold = _join_threshold(left.threshold, right.threshold)
     if lower is None and threshold is not None:
         side = lhs if left.threshold is not None else rhs
@@ -474,7 +546,8 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
             f"for all {var} cannot be decided; state it for {var} >= some bound").at(side)
     start = 0 if lower is None else lower if threshold is None else max(lower, threshold)
     below = [] if lower is None else list(range(lower, start))
-    block = (degree + 1) * period
+    # the difference satisfies a recurrence of order (D+1)|Z|, which is <= (D+1) L
+    block = (degree + 1) * min(root_count(orders), period)
     limits.require("terms", block + len(below), f"an identity of degree {degree} and period {period}")
     ns = below + list(range(start, start + block))
     result = IdentityResult(True, degree, period, ns[0] if ns else start, len(ns), threshold)

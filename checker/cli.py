@@ -141,7 +141,7 @@ def _cmd_check(ns, out, err) -> int:
             print(render_failure(report, f), file=out)
         if ns.list_each:
             status = "verified" if report.ok else "not verified"
-            print(f"{report.name}: {status} ({report.checked} claims and steps)", file=out)
+            print(f"{report.name}: {status} ({report.checked} checked)", file=out)
             for note in report.notes:
                 print(f"  {note}", file=out)
     print(summary_line(reports, None if ns.no_time else time.perf_counter() - start), file=out)

@@ -324,7 +324,8 @@ class _Replay:
                                end_column=rep.pos.end_column if rep.pos.end_line == rep.pos.line else None))
             return
         if gap != 0:
-            self._fail(Failure(pos.line, pos.column, f"{g} is representable ({value_text(gap)} ways), "
+            ways = f"{value_text(gap)} way{'s' if gap != 1 else ''}"
+            self._fail(Failure(pos.line, pos.column, f"{g} is representable ({ways}), "
                                "so it is not the Frobenius number", claimed=Fraction(g)))
             return
         if wanted:

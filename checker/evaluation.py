@@ -164,7 +164,15 @@ class Evaluator:
         return self.call(node.name, args, node)
 
     def _ListExpr(self, node):
-        return tuple(self.value(item) for item in node.items)
+        cache = self.__dict__.setdefault("_literal_lists", {})
+        hit = cache.get(id(node))
+        if hit is not None and hit[0] is node:
+            return hit[1]
+        value = tuple(self.value(item) for item in node.items)
+        if _literal(node):
+            # identities evaluate the same table at many points: build it once
+            cache[id(node)] = (node, value)
+        return value
 
     def _FiniteSum(self, node):
         lower = _integer(self.number(node.lower), "the lower end of a sum", node.lower)
@@ -236,6 +244,26 @@ class Evaluator:
 
 
 _MISSING = object()
+
+
+def _literal(node) -> bool:
+    """Numbers, fractions, signs and lists of them only: the value cannot change."""
+    stack = [node]
+    while stack:
+        x = stack.pop()
+        if isinstance(x, ex.Num):
+            continue
+        if isinstance(x, ex.ListExpr):
+            stack.extend(x.items)
+        elif isinstance(x, ex.Neg):
+            stack.append(x.operand)
+        elif isinstance(x, ex.Product):
+            stack.extend(f for _, f in x.factors)
+        elif isinstance(x, ex.Sum):
+            stack.extend(t for _, t in x.terms)
+        else:
+            return False
+    return True
 
 
 def _table(parts, size):

@@ -38,6 +38,10 @@ def _units(text: str) -> list[Unit]:
             units.append(Unit("claim", s.pos.line, s.pos.end_line, s.relation))
         elif isinstance(s, st.Congruence):
             units.append(Unit("congruence", s.pos.line, s.pos.end_line))
+        elif isinstance(s, st.Identity):
+            units.append(Unit("identity", s.pos.line, s.pos.end_line))
+        elif isinstance(s, st.Witness):
+            units.append(Unit("witness", s.pos.line, s.pos.end_line))
         elif isinstance(s, st.Chain):
             first = s.steps[0]
             units.append(Unit("start", s.pos.line, first.pos.end_line))
@@ -83,7 +87,7 @@ def mutants(text: str, deltas=(1, -1), operators=False, rules=False):
             by_line.setdefault(ln, unit) if unit.kind != "start" else by_line.setdefault(ln, unit)
     # a chain's start line belongs to the start unit; its step lines to their steps
     for unit in _units(text):
-        if unit.kind in ("step", "claim", "congruence"):
+        if unit.kind in ("step", "claim", "congruence", "identity", "witness"):
             for ln in range(unit.first_line, unit.last_line + 1):
                 by_line[ln] = unit
         elif unit.kind == "start":

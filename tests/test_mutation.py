@@ -74,6 +74,13 @@ def justify(m, original_text):
         return "an inequality that still holds after the change"
     if m.unit.kind == "congruence":
         return "a congruence that still holds after the change"
+    if m.unit.kind in ("identity", "witness"):
+        statement = "\n".join(m.text.split("\n")[m.unit.first_line - 1: m.unit.last_line])
+        lets = [ln for ln in m.text.split("\n") if ln.startswith("let ")]
+        with reference_functions():
+            if check_text("\n".join(lets) + "\n" + statement + "\n", limits=_LIMITS).ok:
+                return "the changed statement is still true (re-checked with the reference implementations)"
+        return None
     if m.unit.kind == "claim" and _reference_true(_claim_sides(line), m.text):
         return "an equality that still holds (re-checked with the reference implementations)"
     if m.unit.kind in ("step", "start") and _same_line(_statement_text(original_text, m.line), line):

@@ -27,7 +27,7 @@ from .fourier_dedekind import fourier_dedekind
 from .frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from .limits import Limits
 from .periodic import constituents, periodic
-from .polytopes import lattice_points, lattice_points_inequalities
+from .polytopes import interior_lattice_points, lattice_points, lattice_points_inequalities
 from .partitions import (partitions, partitions_extended, polynomial_part as _polynomial_part,
                          quasipolynomial_cost, table_cost, check_parts)
 
@@ -38,7 +38,7 @@ __all__ = [
     "dedekind", "dedekind_rademacher", "generalized_dedekind", "fourier_dedekind",
     "partitions", "partitions_extended", "partitions_polynomial_part",
     "frobenius", "nonrepresentable", "floor_sum", "periodic", "constituents",
-    "lattice_points", "lattice_points_in",
+    "lattice_points", "lattice_points_in", "interior_lattice_points",
 ]
 
 
@@ -239,6 +239,9 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("lattice_points", "t, [[x1, y1], [x2, y2], ...]",
           "lattice points in t times the convex hull of rational points in the plane",
           lattice_points, (2, 2)),
+    _spec("interior_lattice_points", "t, [[x1, y1], [x2, y2], ...]",
+          "lattice points strictly inside t times the convex hull of rational points in the plane",
+          interior_lattice_points, (2, 2)),
     _spec("lattice_points_in", "t, [[a1, ..., ad, b], ...]",
           "lattice points in t P for the polytope P = {x : a.x <= b}, d = 2, 3 or 4",
           lattice_points_in, (2, 2), False, _cost_polytope),

@@ -7,7 +7,9 @@ is handed (parsing, reporting and file handling live elsewhere):
 - a chain step, checked twice: (1) the cited rules, applied to calls of the
   previous line, give the next line as a normal form; (2) the two lines have
   the same exact value;
-- the use of an earlier verified equality: previous - next = c (lhs - rhs).
+- the use of an earlier verified equality: previous - next = c (lhs - rhs);
+- a Frobenius witness: g is not representable and g+1, ..., g+min(A) are.
+  (Identities between quasi-polynomials are decided in ``quasipolynomial``.)
 """
 from __future__ import annotations
 
@@ -18,7 +20,8 @@ from .errors import CertificateError, RuleRefused
 from .normal import NF, atom_text, atoms, constant, scale, sub, substitute
 from .rules import RULES, WHOLE_LINE_RULES
 
-__all__ = ["compare", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule"]
+__all__ = ["compare", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule",
+           "frobenius_witness_problem", "representation_problem"]
 
 _MAX_CANDIDATES = 256
 
@@ -177,3 +180,38 @@ def _unique(xs: list) -> list:
             seen.add(key)
             out.append(x)
     return out
+
+
+def representation_problem(terms, parts, m) -> str:
+    """Why `terms` (a list of factor lists, each a product) is not a representation of m
+    as a sum of non-negative multiples of parts; '' when it is."""
+    total = 0
+    for factors in terms:
+        if any(f < 0 for f in factors):
+            return "a representation adds non-negative multiples of parts; a factor is negative"
+        if not any(f in parts for f in factors):
+            return f"the term {'*'.join(map(str, factors))} has no factor among the parts {list(parts)}"
+        product = 1
+        for f in factors:
+            product *= f
+        total += product
+    if total != m:
+        return f"the terms add up to {total}, not {m}"
+    return ""
+
+
+def frobenius_witness_problem(parts, g: int, represented: set, ways_for_g) -> str:
+    """'' when the witness proves that g is the Frobenius number of `parts`.
+
+    p_A(g) = 0, and every integer in g+1 .. g+min(A) is represented; adding
+    multiples of min(A) then represents every larger integer.
+    """
+    if ways_for_g != 0:
+        return f"{g} is representable ({ways_for_g} way{'s' if ways_for_g != 1 else ''}), so it is not the Frobenius number"
+    smallest = min(parts)
+    missing = sorted(set(range(g + 1, g + smallest + 1)) - represented)
+    if missing:
+        shown = ", ".join(str(m) for m in missing[:8])
+        return (f"the witness must represent every integer from {g + 1} to {g + smallest}; "
+                f"missing: {shown}")
+    return ""

@@ -25,7 +25,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 from itertools import combinations
-from math import floor as _floor
+from math import floor as _floor, gcd
 
 from .elementary import as_integer, as_rational
 from .errors import DomainError
@@ -309,3 +309,54 @@ def inequality_vertex_denominator(rows) -> int:
     if not vertices:
         return 1
     return lcm(*[c.denominator for v in vertices for c in v])
+
+
+def _segment_lattice_points(p, q) -> int:
+    """Lattice points on the closed segment between rational points p and q."""
+    (x0, y0), (x1, y1) = p, q
+    if p == q:
+        return 1 if x0.denominator == 1 and y0.denominator == 1 else 0
+    # the line a x + b y = c with integers a, b, c
+    a, b = y1 - y0, x0 - x1
+    c = a * x0 + b * y0
+    from math import lcm
+    m = lcm(a.denominator, b.denominator, c.denominator)
+    a, b, c = int(a * m), int(b * m), int(c * m)
+    g = gcd(a, b)
+    if c % g:
+        return 0
+    a, b, c = a // g, b // g, c // g
+    # one integer solution by the extended Euclid algorithm, then x = x* + b k, y = y* - a k
+    u, v = _bezout(a, b)                    # a u + b v = 1
+    xs, ys = u * c, v * c
+    # the k with the point between p and q: project on the direction (b, -a)
+    def k_of(x, y):
+        return ((x - xs) * b - (y - ys) * a) / (a * a + b * b)
+    k0, k1 = sorted((k_of(x0, y0), k_of(x1, y1)))
+    return max(0, _floor(k1) - _ceil(k0) + 1)
+
+
+def _bezout(a: int, b: int):
+    old_r, r, old_s, s, old_t, t = a, b, 1, 0, 0, 1
+    while r:
+        q = old_r // r
+        old_r, r = r, old_r - q * r
+        old_s, s = s, old_s - q * s
+        old_t, t = t, old_t - q * t
+    if old_r < 0:
+        old_s, old_t = -old_s, -old_t
+    return old_s, old_t
+
+
+def interior_lattice_points(t, points) -> Fraction:
+    """Lattice points strictly inside t times the convex hull of rational points (a polygon)."""
+    t = as_integer(t, "the dilation factor of interior_lattice_points")
+    if t < 0:
+        raise DomainError(f"the dilation factor must be >= 0, not {t}")
+    pts = check_points(points, "interior_lattice_points")
+    hull = convex_hull([(t * x, t * y) for x, y in pts])
+    if len(hull) < 3:
+        return Fraction(0)
+    boundary = sum(_segment_lattice_points(hull[i], hull[(i + 1) % len(hull)]) for i in range(len(hull)))
+    corners = sum(1 for x, y in hull if x.denominator == 1 and y.denominator == 1)
+    return Fraction(polygon_count(hull) - (boundary - corners))

@@ -444,10 +444,10 @@ def _constituents(node, var, ev):
     table = _constant(node.args[1], var, ev, "the table of constituents")
     if not isinstance(table, tuple) or not table or not all(isinstance(r, tuple) and r for r in table):
         _refuse(node, "constituents needs a list of coefficient lists")
-    p = polynomial(node.args[0], var, ev)
-    if p != [Fraction(0), Fraction(1)]:
-        _refuse(node.args[0], f"the first argument of constituents must be {var} itself")
-    return Shape(max(len(r) for r in table) - 1, len(table))
+    a, _ = _linear(node.args[0], var, ev, True, "the first argument of constituents")
+    L = len(table)
+    period = L // gcd(L, a.numerator) if a else 1
+    return Shape(max(len(r) for r in table) - 1, period)
 
 
 def _lattice(node, var, ev):
@@ -460,7 +460,8 @@ def _lattice(node, var, ev):
     p = polynomial(node.args[0], var, ev)
     if p != [Fraction(0), Fraction(1)]:
         _refuse(node.args[0], f"the dilation factor must be {var} itself")
-    return Shape(2, vertex_denominator(pts), 0)
+    # the interior of 0 P is empty, so its count is a quasi-polynomial from t = 1 on
+    return Shape(2, vertex_denominator(pts), 1 if node.name == "interior_lattice_points" else 0)
 
 
 def _lattice_in(node, var, ev):
@@ -485,7 +486,7 @@ _CALL_RULES = {
     "partitions_polynomial_part": _partitions_everywhere,
     "bernoulli": _bernoulli, "periodic_bernoulli": _periodic_bernoulli, "binomial": _binomial,
     "periodic": _periodic, "constituents": _constituents,
-    "lattice_points": _lattice, "lattice_points_in": _lattice_in,
+    "lattice_points": _lattice, "lattice_points_in": _lattice_in, "interior_lattice_points": _lattice,
 }
 
 

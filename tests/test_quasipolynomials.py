@@ -255,3 +255,44 @@ def test_claimed_period_and_degree_are_verified_not_trusted():
 def test_wrong_witnesses(text, message):
     f = check_text(text).failure
     assert f is not None and f.message == message
+
+
+def _brute_interior(t, pts):
+    import math
+    pts = [(t * x, t * y) for x, y in pts]
+    hull = convex_hull(pts)
+    if len(hull) < 3:
+        return 0
+    xs = [p[0] for p in pts]
+    ys = [p[1] for p in pts]
+    return sum(all((hull[(i + 1) % len(hull)][0] - hull[i][0]) * (y - hull[i][1]) -
+                   (hull[(i + 1) % len(hull)][1] - hull[i][1]) * (x - hull[i][0]) > 0 for i in range(len(hull)))
+               for x in range(math.floor(min(xs)), math.ceil(max(xs)) + 1)
+               for y in range(math.floor(min(ys)), math.ceil(max(ys)) + 1))
+
+
+@settings(max_examples=200)
+@given(st.lists(st.tuples(rational, rational), min_size=3, max_size=4), st.integers(0, 3))
+def test_interior_counts_against_brute_force(pts, t):
+    # brute-force enumeration with strict inequalities
+    from checker.polytopes import interior_lattice_points
+    assert interior_lattice_points(t, pts) == _brute_interior(t, pts)
+
+
+def test_ehrhart_macdonald_reciprocity_for_random_rational_triangles():
+    # Ehrhart-Macdonald reciprocity (Beck & Robins, ch. 4): L_interior(t) = L_P(-t) for t >= 1,
+    # with L_P's quasi-polynomial written out by derive
+    from checker.derive import derive
+    rng = random.Random(11)
+    for _ in range(8):
+        pts = [[f"{rng.randint(-6, 6)}/{rng.randint(1, 3)}", f"{rng.randint(-6, 6)}/{rng.randint(1, 3)}"]
+               for _ in range(3)]
+        verts = "[" + ", ".join(f"[{x}, {y}]" for x, y in pts) + "]"
+        parsed = [(Fraction(x), Fraction(y)) for x, y in pts]
+        if len(convex_hull(parsed)) < 3:
+            continue
+        text = derive(f"lattice_points(t, {verts})")
+        assert check_text(text).ok
+        table = text.split("constituents(t, ", 1)[1].rsplit(")", 1)[0]
+        reciprocity = f"identity for t >= 1: interior_lattice_points(t, {verts}) = constituents(-t, {table})\n"
+        assert check_text(reciprocity).ok, verts

@@ -546,11 +546,12 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
             f"this side is a quasi-polynomial in {var} only from {var} = {threshold} on, so an identity "
             f"for all {var} cannot be decided; state it for {var} >= some bound").at(side)
     start = 0 if lower is None else lower if threshold is None else max(lower, threshold)
-    below = [] if lower is None else list(range(lower, start))
+    below = 0 if lower is None else start - lower
+    limits.require("terms", below, f"checking the {below} values below the threshold {var} = {start}")
     # the difference satisfies a recurrence of order (D+1)|Z|, which is <= (D+1) L
     block = (degree + 1) * min(root_count(orders), period)
-    limits.require("terms", block + len(below), f"an identity of degree {degree} and period {period}")
-    ns = below + list(range(start, start + block))
+    limits.require("terms", block + below, f"an identity of degree {degree} and period {period}")
+    ns = range(start - below, start + block)
     result = IdentityResult(True, degree, period, ns[0] if ns else start, len(ns), threshold)
     saved = ev.env.get(var)
     try:

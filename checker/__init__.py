@@ -12,6 +12,7 @@ Public surface:
 """
 from . import functions
 from .errors import BudgetExceeded, CertificateError, DomainError, RuleRefused, SyntaxProblem, UsageError
+from .builder import Certificate
 from .checking import check_file, check_text
 from .evaluation import evaluate, evaluate_value
 from .report import Failure, Report
@@ -19,6 +20,7 @@ from .limits import DEFAULT_LIMITS, Limits
 
 __all__ = [
     "evaluate", "evaluate_value", "functions", "check_text", "check_file", "Report", "Failure",
+    "Certificate",
     "CertificateError", "SyntaxProblem", "DomainError", "BudgetExceeded", "RuleRefused", "UsageError",
     "Limits", "DEFAULT_LIMITS",
 ]

@@ -134,6 +134,12 @@ def _cmd_check(ns, out, err) -> int:
         raise UsageError("no certificates (*.qcert) found")
     start = time.perf_counter()
     reports = []
+    if ns.format != "text":
+        from .formats import reports_json, reports_sarif
+        for path in paths:
+            reports.append(check_file(path, limits, keep_going=ns.every_failure, paranoid=ns.paranoid))
+        out.write(reports_json(reports) if ns.format == "json" else reports_sarif(reports))
+        return max((r.exit_code for r in reports), default=EXIT_OK)
     for path in paths:
         report = check_file(path, limits, keep_going=ns.every_failure, paranoid=ns.paranoid)
         reports.append(report)
@@ -177,6 +183,9 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--paranoid", action="store_true",
                    help="compute every function value a second way where sizes allow; "
                         "a disagreement is reported as a bug in quasicert (exit 3)")
+    c.add_argument("--format", choices=["text", "json", "sarif"], default="text",
+                   help="text for people (default); json, one object per certificate; sarif, the "
+                        "SARIF 2.1.0 format that code hosts and editors read")
     c.add_argument("--no-time", action="store_true",
                    help="leave the time out of the summary line (byte-identical output)")
     sub.add_parser("eval", help="print the exact value of expressions", add_help=False)

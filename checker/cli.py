@@ -110,7 +110,7 @@ def certificate_paths(paths: Sequence[str]) -> list:
     for p in paths:
         path = Path(p)
         if path.is_dir():
-            found.extend(sorted(q for q in path.rglob("*.qcert") if q.is_file()))
+            found.extend(sorted(q for q in path.rglob("*.qcert") if q.is_file()))   # tables only by name
         elif path.exists():
             found.append(path)
         else:
@@ -124,25 +124,74 @@ def bundled_certificates() -> list:
     return sorted(q for q in folder.rglob("*.qcert") if q.is_file())
 
 
+def _check_one(args):
+    """Check one path (a certificate or a table); module level so that processes can run it."""
+    path, limits, keep_going, paranoid = args
+    from .checking import check_file
+    from .tables import TABLE_SUFFIXES, check_table
+    if path.suffix.lower() in TABLE_SUFFIXES:
+        return check_table(path, limits)
+    return check_file(path, limits, keep_going=keep_going, paranoid=paranoid)
+
+
+def _progress_bar(total_files: int, out):
+    """A tqdm bar on a terminal, nothing otherwise."""
+    isatty = getattr(out, "isatty", None)
+    if not (isatty and isatty()) or total_files < 2:
+        return None
+    try:
+        from tqdm import tqdm
+    except ImportError:
+        return None
+    return tqdm(total=total_files, unit="file", leave=False, file=sys.stderr)
+
+
 def _cmd_check(ns, out, err) -> int:
     import time
-    from .checking import check_file
     from .report import render_failure, summary_line
+    from .tables import TABLE_SUFFIXES, check_table
     limits = _limits_from(ns.limit)
     paths = certificate_paths(ns.paths) if ns.paths else bundled_certificates()
     if not paths:
         raise UsageError("no certificates (*.qcert) found")
+    if ns.jobs < 1:
+        raise UsageError("--jobs wants a whole number >= 1")
     start = time.perf_counter()
-    reports = []
+    jobs = [(p, limits, ns.every_failure, ns.paranoid) for p in paths]
+    bar = _progress_bar(len(paths), out)
+    if len(paths) == 1 and paths[0].suffix.lower() in TABLE_SUFFIXES:
+        rows_bar = None
+        if getattr(out, "isatty", lambda: False)():
+            try:
+                from tqdm import tqdm
+                rows_bar = tqdm(unit="row", leave=False, file=sys.stderr)
+            except ImportError:
+                rows_bar = None
+        reports = [check_table(paths[0], limits, ns.jobs, rows_bar.update if rows_bar else None)]
+        if rows_bar:
+            rows_bar.close()
+    elif ns.jobs > 1 and len(paths) > 1:
+        from concurrent.futures import ProcessPoolExecutor
+        from .tables import bounded_map
+        reports = []
+        with ProcessPoolExecutor(ns.jobs) as pool:
+            for r in bounded_map(pool, _check_one, jobs, 4 * ns.jobs):
+                reports.append(r)
+                if bar:
+                    bar.update()
+    else:
+        reports = []
+        for j in jobs:
+            reports.append(_check_one(j))
+            if bar:
+                bar.update()
+    if bar:
+        bar.close()
     if ns.format != "text":
         from .formats import reports_json, reports_sarif
-        for path in paths:
-            reports.append(check_file(path, limits, keep_going=ns.every_failure, paranoid=ns.paranoid))
         out.write(reports_json(reports) if ns.format == "json" else reports_sarif(reports))
         return max((r.exit_code for r in reports), default=EXIT_OK)
-    for path in paths:
-        report = check_file(path, limits, keep_going=ns.every_failure, paranoid=ns.paranoid)
-        reports.append(report)
+    for report in reports:
         for f in report.failures:
             print(render_failure(report, f), file=out)
         if ns.list_each:
@@ -173,7 +222,10 @@ def _parser() -> argparse.ArgumentParser:
                "a syntax error, a usage error or a limit reached, 3 a bug in quasicert found by --paranoid")
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
     c = sub.add_parser("check", help="replay certificates (default: the bundled ones)")
-    c.add_argument("paths", nargs="*", metavar="PATH", help="*.qcert files, or folders to search")
+    c.add_argument("paths", nargs="*", metavar="PATH",
+                   help="*.qcert certificates, *.csv or *.jsonl tables of claims, or folders to search for *.qcert")
+    c.add_argument("--jobs", type=int, default=1, metavar="N",
+                   help="spread files, or the rows of one table, over N processes (same verdicts and order)")
     c.add_argument("--every-failure", action="store_true",
                    help="go on past the first failure and list every failing step")
     c.add_argument("--list-each", action="store_true",

@@ -3,6 +3,7 @@
     quasicert check [PATH ...]      replay certificates (default: the bundled ones)
     quasicert eval EXPR ...         print exact values, one per line
     quasicert derive EXPR           write a certificate for a value
+    quasicert latex PATH            a checked certificate as LaTeX
     quasicert functions | rules     list the language's functions or rules
 """
 from __future__ import annotations
@@ -203,6 +204,27 @@ def _cmd_check(ns, out, err) -> int:
     return max((r.exit_code for r in reports), default=EXIT_OK)
 
 
+def _cmd_latex(ns, out, err) -> int:
+    from pathlib import Path
+    from .checking import read_certificate_text
+    from .latex import certificate_latex
+    path = Path(ns.path)
+    if not path.exists():
+        raise UsageError(f"no such file: {ns.path}")
+    try:
+        text = read_certificate_text(path)
+        document = certificate_latex(text, str(path))
+    except CertificateError as e:
+        _print_error(e, text if "text" in locals() else "", str(path), err)
+        return EXIT_ERROR
+    if ns.output:
+        with open(ns.output, "w", encoding="utf-8") as fh:
+            fh.write(document)
+    else:
+        out.write(document)
+    return EXIT_OK
+
+
 def _cmd_derive(ns, out) -> int:
     from .derive import derive
     text = derive(ns.expression)
@@ -244,6 +266,9 @@ def _parser() -> argparse.ArgumentParser:
     d = sub.add_parser("derive", help="write a certificate for a value, e.g. \"dedekind(5, 17)\"")
     d.add_argument("expression")
     d.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
+    t = sub.add_parser("latex", help="write a checked certificate as a LaTeX document (failures marked)")
+    t.add_argument("path")
+    t.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
     sub.add_parser("functions", help="list the functions of the language")
     sub.add_parser("rules", help="list the rules a step may cite")
     return p
@@ -267,6 +292,8 @@ def main(argv: Sequence[str] | None = None, out=None, err=None) -> int:
             except CertificateError as e:
                 _print_error(e, ns.expression, "expression", err)
                 return EXIT_ERROR
+        if ns.command == "latex":
+            return _cmd_latex(ns, out, err)
         if ns.command == "functions":
             return _cmd_functions(out)
         if ns.command == "rules":

@@ -179,18 +179,10 @@ class Evaluator:
         upper = _integer(self.number(node.upper), "the upper end of a sum", node.upper)
         count = upper - lower + 1
         self.limits.require("terms", max(count, 0), f"a sum of {max(count, 0)} terms")
-        saved = self.env.get(node.var, _MISSING)
         total = Fraction(0)
-        try:
-            for j in range(lower, upper + 1):
-                self.env[node.var] = Fraction(j)
-                total += self.number(node.body)
-                self._check_size(total, node)
-        finally:
-            if saved is _MISSING:
-                self.env.pop(node.var, None)
-            else:
-                self.env[node.var] = saved
+        for _ in binding(self.env, node.var, range(lower, upper + 1)):
+            total += self.number(node.body)
+            self._check_size(total, node)
         return total
 
     # -- helpers ------------------------------------------------------------
@@ -246,23 +238,28 @@ class Evaluator:
 _MISSING = object()
 
 
+def binding(env: dict, var: str, values):
+    """Bind `var` to each value in turn (as a Fraction), restoring what it was afterwards."""
+    saved = env.get(var, _MISSING)
+    try:
+        for v in values:
+            env[var] = Fraction(v)
+            yield v
+    finally:
+        if saved is _MISSING:
+            env.pop(var, None)
+        else:
+            env[var] = saved
+
+
 def _literal(node) -> bool:
     """Numbers, fractions, signs and lists of them only: the value cannot change."""
     stack = [node]
     while stack:
         x = stack.pop()
-        if isinstance(x, ex.Num):
-            continue
-        if isinstance(x, ex.ListExpr):
-            stack.extend(x.items)
-        elif isinstance(x, ex.Neg):
-            stack.append(x.operand)
-        elif isinstance(x, ex.Product):
-            stack.extend(f for _, f in x.factors)
-        elif isinstance(x, ex.Sum):
-            stack.extend(t for _, t in x.terms)
-        else:
+        if not isinstance(x, (ex.Num, ex.ListExpr, ex.Neg, ex.Product, ex.Sum)):
             return False
+        stack.extend(ex.children(x))
     return True
 
 

@@ -10,7 +10,7 @@ from dataclasses import dataclass
 from typing import Union
 
 __all__ = ["Pos", "Num", "Name", "Neg", "Sum", "Product", "Power", "Call",
-           "ListExpr", "FiniteSum", "Expr", "NOWHERE"]
+           "ListExpr", "FiniteSum", "Expr", "NOWHERE", "children"]
 
 
 @dataclass(frozen=True)
@@ -87,3 +87,22 @@ class FiniteSum:
 
 
 Expr = Union[Num, Name, Neg, Sum, Product, Power, Call, ListExpr, FiniteSum]
+
+
+def children(node) -> tuple:
+    """The sub-expressions of a node, in order."""
+    if isinstance(node, Neg):
+        return (node.operand,)
+    if isinstance(node, Sum):
+        return tuple(t for _, t in node.terms)
+    if isinstance(node, Product):
+        return tuple(f for _, f in node.factors)
+    if isinstance(node, Power):
+        return (node.base, node.exponent)
+    if isinstance(node, Call):
+        return node.args
+    if isinstance(node, ListExpr):
+        return node.items
+    if isinstance(node, FiniteSum):
+        return (node.lower, node.upper, node.body)
+    return ()

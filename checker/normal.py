@@ -268,26 +268,16 @@ class Normaliser:
             raise DomainError("the ends of a sum must be integers").at(node)
         count = max(0, upper.numerator - lower.numerator + 1)
         self.limits.require("unfold_terms", count, f"a sum of {count} terms")
-        saved = ev.env.get(node.var, _MISSING)
+        from .evaluation import binding
         total: NF = {}
-        try:
-            for j in range(lower.numerator, upper.numerator + 1):
-                ev.env[node.var] = Fraction(j)
-                total = add(total, self.normal(node.body))
-        finally:
-            if saved is _MISSING:
-                ev.env.pop(node.var, None)
-            else:
-                ev.env[node.var] = saved
+        for _ in binding(ev.env, node.var, range(lower.numerator, upper.numerator + 1)):
+            total = add(total, self.normal(node.body))
         return total
 
     def _check_size(self, x: NF, node):
         if len(x) > self.limits.terms:
             raise BudgetExceeded(f"the expression has {len(x)} terms, over the limit terms = "
                                  f"{self.limits.terms}").at(node)
-
-
-_MISSING = object()
 
 
 def _trivial_value(atom):

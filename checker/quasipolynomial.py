@@ -123,25 +123,9 @@ def mentions(node, var: str) -> bool:
     stack = [node]
     while stack:
         x = stack.pop()
-        if isinstance(x, ex.Name):
-            if x.name == var:
-                return True
-        elif isinstance(x, ex.Num):
-            continue
-        elif isinstance(x, ex.Neg):
-            stack.append(x.operand)
-        elif isinstance(x, ex.Sum):
-            stack.extend(t for _, t in x.terms)
-        elif isinstance(x, ex.Product):
-            stack.extend(f for _, f in x.factors)
-        elif isinstance(x, ex.Power):
-            stack.extend((x.base, x.exponent))
-        elif isinstance(x, (ex.Call,)):
-            stack.extend(x.args)
-        elif isinstance(x, ex.ListExpr):
-            stack.extend(x.items)
-        elif isinstance(x, ex.FiniteSum):
-            stack.extend((x.lower, x.upper, x.body))
+        if isinstance(x, ex.Name) and x.name == var:
+            return True
+        stack.extend(ex.children(x))
     return False
 
 
@@ -507,11 +491,8 @@ class IdentityResult:
 
 
 def _values(node, var, ns, ev):
-    out = []
-    for n in ns:
-        ev.env[var] = Fraction(n)
-        out.append(ev.number(node))
-    return out
+    from .evaluation import binding
+    return [ev.number(node) for _ in binding(ev.env, var, ns)]
 
 
 def _check_claimed(node, side, var, s: Shape, start, ev, period, degree, limits):
@@ -552,28 +533,21 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
     block = (degree + 1) * min(root_count(orders), period)
     limits.require("terms", block + below, f"an identity of degree {degree} and period {period}")
     ns = range(start - below, start + block)
+    from .evaluation import binding
     result = IdentityResult(True, degree, period, ns[0] if ns else start, len(ns), threshold)
-    saved = ev.env.get(var)
-    try:
-        for n in ns:
-            ev.env[var] = Fraction(n)
-            a, b = ev.number(lhs), ev.number(rhs)
-            if a != b:
-                result.ok, result.counterexample, result.left, result.right = False, n, a, b
+    for n in binding(ev.env, var, ns):
+        a, b = ev.number(lhs), ev.number(rhs)
+        if a != b:
+            result.ok, result.counterexample, result.left, result.right = False, n, a, b
+            return result
+    if claimed_period is not None or claimed_degree is not None:
+        p = claimed_period if claimed_period is not None else period
+        d = claimed_degree if claimed_degree is not None else degree
+        if p < 1 or d < 0:
+            raise DomainError("a claimed period must be >= 1 and a claimed degree >= 0")
+        for node, s, side in ((lhs, left, "left"), (rhs, right, "right")):
+            problem = _check_claimed(node, side, var, s, start, ev, p, d, limits)
+            if problem:
+                result.ok, result.problem = False, problem
                 return result
-        if claimed_period is not None or claimed_degree is not None:
-            p = claimed_period if claimed_period is not None else period
-            d = claimed_degree if claimed_degree is not None else degree
-            if p < 1 or d < 0:
-                raise DomainError("a claimed period must be >= 1 and a claimed degree >= 0")
-            for node, s, side in ((lhs, left, "left"), (rhs, right, "right")):
-                problem = _check_claimed(node, side, var, s, start, ev, p, d, limits)
-                if problem:
-                    result.ok, result.problem = False, problem
-                    return result
-    finally:
-        if saved is None:
-            ev.env.pop(var, None)
-        else:
-            ev.env[var] = saved
     return result

@@ -16,7 +16,7 @@ from .elementary import as_integer
 from .partitions import (PartitionQuasiPolynomial, check_parts, partitions_by_table,
                          quasipolynomial_cost, table_cost)
 
-__all__ = ["second_opinion"]
+__all__ = ["second_opinion", "fourier_dedekind_by_convolution", "frobenius_by_scan"]
 
 _SMALL = 20_000
 
@@ -48,10 +48,14 @@ def _partitions(n, parts):
 def _fourier_dedekind(n, parts, b):
     if not (_int(n) and _int(b) and isinstance(parts, tuple)) or not 1 <= b <= 150 or len(parts) > 6:
         return None
-    n, b = n.numerator, b.numerator
     parts = [as_integer(a) for a in parts]
-    if any(gcd(a, b) != 1 for a in parts):
+    if any(gcd(a, b.numerator) != 1 for a in parts):
         return None
+    return fourier_dedekind_by_convolution(n.numerator, parts, b.numerator)
+
+
+def fourier_dedekind_by_convolution(n: int, parts, b: int) -> Fraction:
+    """s_n(A; b) by direct convolution of the geometric-series coefficients over Z/b: O(m b^2)."""
     if b == 1:
         return Fraction(0)
     if not parts:
@@ -93,6 +97,11 @@ def _frobenius(parts):
         g = gcd(g, a)
     if g != 1:
         return None
+    return frobenius_by_scan(parts)
+
+
+def frobenius_by_scan(parts) -> Fraction:
+    """The largest non-representable integer by marking representable ones up to min * max."""
     if min(parts) == 1:
         return Fraction(-1)
     bound = min(parts) * max(parts)

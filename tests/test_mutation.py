@@ -99,20 +99,8 @@ def justify(m, original_text):
 
 
 def test_mutants_of_bundled_certificates_are_rejected_at_their_step():
-    made = killed = 0
-    survivors, late = [], []
-    for path in bundled_certificates():
-        text = path.read_text()
-        for m in mutants(text):
-            made += 1
-            report = check_text(m.text, path.name)
-            if report.ok:
-                survivors.append((path.name, m.line, m.column, m.what, justify(m, text)))
-                continue
-            killed += 1
-            f = report.failure
-            if f.line is None or f.line > m.unit.last_line:
-                late.append((path.name, m.line, m.column, m.what, f.line, f.message))
+    texts = [(p.name, p.read_text()) for p in bundled_certificates()]
+    made, killed, survivors, late = _run(texts)
     unexplained = [s for s in survivors if s[4] is None]
     print(f"\nmutants made {made}, rejected {killed} ({100 * killed / made:.1f}%), "
           f"survivors {len(survivors)}, unexplained {len(unexplained)}")

@@ -11,23 +11,12 @@ from checker.errors import DomainError
 from checker.fourier_dedekind import fourier_dedekind
 from checker.partitions import (PartitionQuasiPolynomial, partitions, partitions_by_quasipolynomial,
                                 partitions_by_table, partitions_extended, polynomial_part)
-from conftest import exact
-
-
-def sympy_coefficients(parts, count):
-    # sympy: series coefficients of 1/prod(1 - x^a)
-    x = sympy.symbols("x")
-    gen = 1
-    for a in parts:
-        gen *= 1 / (1 - x ** a)
-    series = sympy.series(gen, x, 0, count).removeO()
-    poly = sympy.Poly(series, x)
-    return [int(poly.coeff_monomial(x ** n)) for n in range(count)]
+from conftest import exact, sympy_series
 
 
 @pytest.mark.parametrize("parts", [[1, 2], [2, 3, 5], [4, 9, 11], [3, 3, 4], [6, 10, 15], [1, 1, 1, 2], [7]])
 def test_against_sympy_series(parts):
-    coeffs = sympy_coefficients(parts, 60)
+    coeffs = sympy_series(parts, 60)
     for n, c in enumerate(coeffs):
         exact(partitions_by_table(n, parts), Fraction(c))
         exact(partitions_by_quasipolynomial(n, parts), Fraction(c))
@@ -38,7 +27,7 @@ def test_against_sympy_series_random_parts():
     rng = random.Random(5)
     for _ in range(5):
         parts = [rng.randint(1, 9) for _ in range(rng.randint(1, 3))]
-        for n, c in enumerate(sympy_coefficients(parts, 30)):
+        for n, c in enumerate(sympy_series(parts, 30)):
             assert partitions_by_quasipolynomial(n, parts) == c, (parts, n)
 
 

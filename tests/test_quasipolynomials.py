@@ -14,6 +14,7 @@ from checker.parsing import parse_certificate
 from checker.partitions import partitions_by_table
 from checker.polytopes import convex_hull, lattice_points, lattice_points_inequalities, polygon_count
 from checker.statements import Identity
+from conftest import sympy_series
 
 
 def derived_rhs(parts):
@@ -27,18 +28,6 @@ def derived_rhs(parts):
         ev.env["n"] = Fraction(n)
         return ev.number(ident.rhs)
     return text, value
-
-
-def sympy_series(parts, count):
-    # sympy: coefficients of 1/prod(1 - x^a), as the product of the truncated geometric
-    # series 1 + x^a + x^(2a) + ... (sympy's own series() is too slow at 200 terms)
-    x = sympy.symbols("x")
-    poly = sympy.Poly(1, x)
-    for a in parts:
-        geometric = sympy.Poly(sum(x ** (a * k) for k in range((count - 1) // a + 1)), x)
-        poly = sympy.Poly((poly * geometric).as_expr(), x)
-        poly = sympy.Poly(sum(poly.coeff_monomial(x ** k) * x ** k for k in range(count)), x)
-    return [int(poly.coeff_monomial(x ** k)) for k in range(count)]
 
 
 @pytest.mark.parametrize("parts, oeis", [([1, 2], "A008619"), ([1, 2, 3], "A001399"), ([1, 5, 10, 25], "A001299")])

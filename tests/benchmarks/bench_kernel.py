@@ -59,14 +59,9 @@ def bench_dedekind():
 
 
 def mpmath_fourier_dedekind(n, parts, b):
-    with mpmath.workdps(20):
-        total = mpmath.mpc(0)
-        for j in range(1, b):
-            term = mpmath.expjpi(mpmath.mpf(2 * j * n) / b)
-            for a in parts:
-                term /= 1 - mpmath.expjpi(mpmath.mpf(2 * j * a) / b)
-            total += term
-        return total / b
+    sys.path.insert(0, os.path.join(os.path.dirname(__file__), ".."))
+    from test_fourier_dedekind import mpmath_definition
+    return mpmath_definition(n, parts, b, dps=20)
 
 
 def bench_fourier_dedekind():

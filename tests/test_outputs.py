@@ -57,6 +57,12 @@ def test_json_report_validates_and_carries_exact_values():
 def test_sarif_report_validates():
     code, out = run(["check", "--format", "sarif", *map(str, BROKEN)])
     log = json.loads(out)
+    # the SARIF 2.1.0 schema (rtm.5) from the npm package @microsoft/jest-sarif, see tests/data/README.md
+    official = json.loads((HERE / "data" / "sarif-2.1.0-rtm.5.json").read_text())
+    jsonschema.Draft4Validator(official).validate(log)
+    broken = dict(log, version="2.0")
+    with pytest.raises(jsonschema.ValidationError):      # the schema does reject a wrong log
+        jsonschema.Draft4Validator(official).validate(broken)
     schema = json.loads((HERE / "data" / "sarif-2.1.0-subset.schema.json").read_text())
     jsonschema.validate(log, schema)
     results = log["runs"][0]["results"]
@@ -69,6 +75,12 @@ def test_sarif_report_validates():
 def test_machine_readable_outputs_are_deterministic():
     outs = {run(["check", "--format", f, "--every-failure", *map(str, BROKEN)])[1] for f in ("json",) for _ in range(2)}
     assert len(outs) == 1
+
+
+def test_reports_are_the_same_with_two_processes():
+    one = run(["check", "--every-failure", "--no-time", *map(str, BROKEN)])
+    two = run(["check", "--every-failure", "--no-time", "--jobs", "2", *map(str, BROKEN)])
+    assert one == two
 
 
 def test_bundled_certificates_in_json():

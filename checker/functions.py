@@ -81,12 +81,15 @@ class FunctionSpec:
     arithmetic: bool = False               # normal forms evaluate it on sight
     cost: Callable[..., Cost] = lambda *args: None
 
-    def call(self, args, limits: Limits):
+    def check_arity(self, count: int) -> None:
         low, high = self.arity
-        if not low <= len(args) <= high:
+        if not low <= count <= high:
             want = str(low) if low == high else f"{low} to {high}"
             raise DomainError(f"{self.name} takes {want} argument{'s' if high != 1 else ''} "
-                              f"({self.signature}), not {len(args)}")
+                              f"({self.signature}), not {count}")
+
+    def call(self, args, limits: Limits):
+        self.check_arity(len(args))
         try:
             need = self.cost(*args)
         except CertificateError:

@@ -254,6 +254,13 @@ def shape(node, var: str, ev) -> Shape:
         s = shape(node.base, var, ev)
         return _power_shape(s, e.numerator)
     if isinstance(node, ex.Call):
+        from .functions import REGISTRY
+        spec = REGISTRY.get(node.name)
+        if spec is not None:
+            try:
+                spec.check_arity(len(node.args))
+            except CertificateError as e:
+                raise e.at(node)
         rule = _CALL_RULES.get(node.name)
         if rule is None:
             _refuse(node, f"quasicert does not know {node.name} to be a quasi-polynomial in {var}")

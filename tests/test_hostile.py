@@ -44,7 +44,10 @@ TOKENS = ["claim", "chain", "let", "title", "source", "=", "==", "mod", "by", "r
           "three_term", "claim q", "q:", "dedekind(", "partitions(", "bernoulli(", "frobenius(",
           "fourier_dedekind(", "sum(j = 0 .. ", "generalized_dedekind(", "floor(", ")", "(", "[",
           "]", ",", "+", "-", "*", "/", "^", "1", "0", "17", "5", "-3", "10^10^10", "\n", "# c\n",
-          '"x"', "x", "j", "<", "<=", "!=", "2^64", "1/0"]
+          '"x"', "x", "j", "<", "<=", "!=", "2^64", "1/0", "identity", "for", "all", "n", ">=", ":",
+          "period", "degree", "witness", "periodic(", "constituents(", "lattice_points(", "[[0, 0], [1, 2]]",
+          "interior_lattice_points(", "lattice_points_in(", "partitions_extended(", "sawtooth(", "n/2",
+          "[1, 2]", "[]", "[[]]", "t", "frobenius([6, 9, 20]) = 43:", "44 = 4*6 + 20"]
 
 
 @settings(max_examples=400, deadline=None)
@@ -171,3 +174,32 @@ def test_reports_are_deterministic(tmp_path):
         main(["check", "--every-failure", "--no-time", *map(str, broken)], out=out, err=io.StringIO())
         outputs.add(out.getvalue())
     assert len(outputs) == 1
+
+
+_atom = st.one_of(st.integers(-40, 40), st.integers(-10**30, 10**30),
+                  st.tuples(st.integers(-20, 20), st.integers(1, 9)).map(lambda t: f"{t[0]}/{t[1]}"))
+_arg = st.recursive(_atom, lambda inner: st.lists(inner, max_size=4), max_leaves=6)
+
+
+def _text(v):
+    return "[" + ", ".join(_text(x) for x in v) + "]" if isinstance(v, list) else str(v)
+
+
+@settings(max_examples=500, deadline=None)
+@given(st.sampled_from(sorted(__import__("checker.functions", fromlist=["REGISTRY"]).REGISTRY)),
+       st.lists(_arg, max_size=4), st.sampled_from(["claim", "chain", "identity"]))
+def test_every_function_with_arbitrary_arguments(name, args, kind):
+    # found by a longer run of this test: identities once indexed missing arguments
+    call = f"{name}({', '.join(_text(a) for a in args)})"
+    if kind == "claim":
+        src = f"claim {call} = 0\n"
+    elif kind == "chain":
+        src = f"chain {call}\n  = 0 by value\n  = 0 by reduce\n"
+    else:
+        src = f"identity for n >= 0: {name}(n{''.join(', ' + _text(a) for a in args[1:])}) = 0\n"
+    verdict(check_text(src))
+
+
+def test_identity_with_a_missing_argument_names_the_arity():
+    f = check_text("identity for n >= 0: binomial(n) = 0\n").failure
+    assert f.message == "binomial takes 2 arguments (n, j), not 1"

@@ -126,3 +126,15 @@ def test_builder_writes_and_checks_in_memory():
                                             "let A = [4, 9, 11]"]
     with pytest.raises(TypeError):
         Certificate().claim("dedekind(1, 3)", 0.5)
+
+
+def test_progress_bar_only_on_a_terminal():
+    from checker.cli import _progress_bar
+
+    class Terminal(io.StringIO):
+        def isatty(self):
+            return True
+    assert _progress_bar(5, io.StringIO()) is None          # piped output: silent
+    bar = _progress_bar(5, Terminal())
+    assert bar is not None and bar.total == 5              # tqdm on a terminal
+    bar.close()

@@ -135,16 +135,16 @@ def _check_one(args):
     return check_file(path, limits, keep_going=keep_going, paranoid=paranoid)
 
 
-def _progress_bar(total_files: int, out):
-    """A tqdm bar on a terminal, nothing otherwise."""
+def _progress_bar(total, out, unit: str = "file"):
+    """A tqdm bar (rate and time left) when the output is a terminal, nothing otherwise."""
     isatty = getattr(out, "isatty", None)
-    if not (isatty and isatty()) or total_files < 2:
+    if not (isatty and isatty()) or (total is not None and total < 2):
         return None
     try:
         from tqdm import tqdm
     except ImportError:
         return None
-    return tqdm(total=total_files, unit="file", leave=False, file=sys.stderr)
+    return tqdm(total=total, unit=unit, leave=False, file=sys.stderr)
 
 
 def _cmd_check(ns, out, err) -> int:
@@ -161,13 +161,7 @@ def _cmd_check(ns, out, err) -> int:
     jobs = [(p, limits, ns.every_failure, ns.paranoid) for p in paths]
     bar = _progress_bar(len(paths), out)
     if len(paths) == 1 and paths[0].suffix.lower() in TABLE_SUFFIXES:
-        rows_bar = None
-        if getattr(out, "isatty", lambda: False)():
-            try:
-                from tqdm import tqdm
-                rows_bar = tqdm(unit="row", leave=False, file=sys.stderr)
-            except ImportError:
-                rows_bar = None
+        rows_bar = _progress_bar(None, out, "row")
         reports = [check_table(paths[0], limits, ns.jobs, rows_bar.update if rows_bar else None)]
         if rows_bar:
             rows_bar.close()

@@ -53,6 +53,10 @@ def test_broken_certificates_fail_at_the_right_place(path):
     assert "Traceback" not in out
 
 
+# Values in these tests: Dedekind sums as computed by python-flint (fmpq.dedekind_sum) and checked
+# against it in test_dedekind.py, e.g. s(5, 17) = 1/17, s(4, 7) = 1/14, s(3, 4) = -1/8.
+
+
 def test_report_of_a_wrong_claim_gives_claimed_exact_and_difference():
     report = check_text("claim q: dedekind(5, 17) = 1/16\n", "draft.qcert")
     f = report.failure

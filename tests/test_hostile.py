@@ -106,6 +106,7 @@ def test_hostile_inputs(name, text, kind):
 
 
 def test_many_megabytes_file(tmp_path):
+    # common practice: 12345678901234567890 * 3 = 37037036703703703670 (integer arithmetic)
     path = tmp_path / "big.qcert"
     path.write_text(_lines(60_000, "claim 12345678901234567890 * 3 = 37037036703703703670 * 1\n"))   # 3.5 MB
     report = check_file(path)

@@ -113,6 +113,8 @@ def test_pytest_plugin_is_opt_in(pytester):
 
 
 def test_builder_writes_and_checks_in_memory():
+    # p_{4,9,11}(100) = 16 and g(4, 9, 11) = 14: sympy series coefficients and brute force,
+    # as in test_partitions.py and test_frobenius.py
     cert = Certificate("output of another program")
     cert.source("run 42").let("A", [4, 9, 11])
     cert.value("dedekind", 5, 17, result=Fraction(1, 17))

@@ -31,6 +31,8 @@ class Limits:
     nesting: int = 200
     #: size of one certificate file
     file_bytes: int = 16 * 1024 * 1024
+    #: tokens in one text (the parser's memory grows with them, about 300 bytes each)
+    tokens: int = 2_000_000
     #: wall-clock seconds for one certificate (checked between statements and steps)
     seconds: int = 600
 
@@ -57,7 +59,7 @@ class Limits:
 _UNITS = {"integer_bits": " bits", "terms": " steps", "unfold_terms": " terms",
           "bernoulli_index": "", "list_length": " entries", "literal_digits": " digits",
           "nesting": " levels", "file_bytes": " bytes",
-          "seconds": " seconds"}
+          "seconds": " seconds", "tokens": " tokens"}
 
 
 def _short(n: int) -> str:

@@ -42,12 +42,19 @@ def grammar_text() -> str:
         (folder / "certificate.lark").read_text(encoding="utf-8")
 
 
+@lru_cache(maxsize=1)
+def _terminal_names() -> tuple:
+    return tuple(t.name for t in Lark(grammar_text(), parser="lalr", start=["expr", "certificate"]).terminals)
+
+
 @lru_cache(maxsize=8)
 def _parser(limits: Limits = DEFAULT_LIMITS) -> Lark:
     # the Transformer runs inside the parser (one pass, no tree): much faster
     # on long certificates, and nothing recursive is left for deep nesting
+    build = _Build(limits)
+    callbacks = {name: build.count_token for name in _terminal_names()}
     return Lark(grammar_text(), parser="lalr", start=["expr", "certificate"],
-                maybe_placeholders=True, transformer=_Build(limits))
+                maybe_placeholders=True, transformer=build, lexer_callbacks=callbacks)
 
 
 def _tpos(tok: Token) -> ex.Pos:
@@ -90,6 +97,16 @@ class _Build(Transformer):
         super().__init__()
         self.limits = limits
         self.depth: dict = {}
+        self.tokens = 0
+
+    def count_token(self, tok):
+        """Refuse texts of more tokens than the budget: parser memory grows with them."""
+        self.tokens += 1
+        if self.tokens > self.limits.tokens:
+            raise BudgetExceeded(f"the text has more than {self.limits.tokens} tokens, the limit tokens = "
+                                 f"{self.limits.tokens} (raise it with --limit tokens=N)",
+                                 tok.line, tok.column)
+        return tok
 
     def _made(self, node, children):
         d = 1
@@ -240,6 +257,7 @@ def _parse(text: str, start: str, limits: Limits):
         column = i - (text.rfind("\n", 0, i) + 1) + 1
         raise SyntaxProblem("the text contains a NUL character", line, column)
     parser = _parser(limits)
+    parser.options.transformer.tokens = 0
     try:
         result = parser.parse(text, start=start)
     except UnexpectedInput as e:
@@ -250,6 +268,7 @@ def _parse(text: str, start: str, limits: Limits):
         raise
     finally:
         parser.options.transformer.depth.clear()
+        parser.options.transformer.tokens = 0
     return result
 
 

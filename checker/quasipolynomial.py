@@ -223,6 +223,13 @@ def _constant(node, var, ev, what):
     return ev.value(node)
 
 
+def _whole_constant(node, var, ev, what) -> int:
+    v = _constant(node, var, ev, what)
+    if not isinstance(v, Fraction) or v.denominator != 1:
+        raise DomainError(f"{what} must be an integer").at(node)
+    return v.numerator
+
+
 def shape(node, var: str, ev) -> Shape:
     """(degree bound, period, threshold) of an expression as a quasi-polynomial in var."""
     if not mentions(node, var):
@@ -406,9 +413,11 @@ def _partitions_everywhere(node, var, ev):
 def _bernoulli(node, var, ev):
     if len(node.args) == 1:
         _refuse(node, f"a Bernoulli number with an index depending on {var} is not a quasi-polynomial")
-    j = _constant(node.args[0], var, ev, "the degree of a Bernoulli polynomial")
+    j = _whole_constant(node.args[0], var, ev, "the degree of a Bernoulli polynomial")
+    if j < 0:
+        raise DomainError("the degree of a Bernoulli polynomial must be >= 0").at(node.args[0])
     s = shape(node.args[1], var, ev)
-    return _power_shape(s, j.numerator)
+    return _power_shape(s, j)
 
 
 def _periodic_bernoulli(node, var, ev):
@@ -417,9 +426,9 @@ def _periodic_bernoulli(node, var, ev):
 
 
 def _binomial(node, var, ev):
-    j = _constant(node.args[1], var, ev, "the lower index of binomial")
+    j = _whole_constant(node.args[1], var, ev, "the lower index of binomial")
     s = shape(node.args[0], var, ev)
-    return _power_shape(s, max(j.numerator, 0))
+    return _power_shape(s, max(j, 0))
 
 
 def _periodic(node, var, ev):

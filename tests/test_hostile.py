@@ -135,6 +135,9 @@ def test_list_and_literal_limits_name_themselves():
     assert f.message == "an integer literal of 6 digits is over the limit literal-digits = 5"
     f = check_text("claim floor(floor(floor(1))) = 1\n", limits=Limits(nesting=2)).failure
     assert f.message == "the expression is nested 3 levels deep, over the limit nesting = 2"
+    f = check_text("claim 1 + 1 + 1 = 3\n", limits=Limits(tokens=5)).failure
+    assert (f.message, f.line, f.column) == (
+        "the text has more than 5 tokens, the limit tokens = 5 (raise it with --limit tokens=N)", 1, 10)
     f = check_text("chain dedekind(1, 30)\n  = 0 by unfold\n", limits=Limits(unfold_terms=10)).failure
     assert "over the limit unfold-terms = 10" in f.message + " ".join(f.details)
 

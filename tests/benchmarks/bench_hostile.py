@@ -17,6 +17,7 @@ CASES = {
     "trivial (reference)": "claim 1 = 1\n",
     "one-megabyte line": "claim " + "+".join(["1"] * 500_000) + " = 500000\n",
     "10,000 nested parentheses": "claim " + "(" * 10_000 + "1" + ")" * 10_000 + " = 1\n",
+    "3 million open parentheses": "claim " + "(" * 3_000_000 + "1\n",
     "exponent tower 10^10^10": "claim 10^10^10 = 1\n",
     "largest allowed power 2^999999": "claim 2^999999 > 1\n",
     "unfold of dedekind(1, 10^9)": "chain dedekind(1, 10^9)\n  = 0 by unfold\n",

@@ -17,7 +17,7 @@ from .evaluation import Evaluator
 from .functions import REGISTRY
 from .kernel import check_step, compare, congruent, known_rule, nf_value
 from .limits import DEFAULT_LIMITS, Limits
-from .normal import Normaliser, atoms, sub, text as nf_text
+from .normal import Normaliser, atoms, text as nf_text
 from .numbers import value_text
 from .parsing import parse_certificate
 from .report import Failure, Report

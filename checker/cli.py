@@ -205,29 +205,37 @@ def _cmd_latex(ns, out, err) -> int:
     path = Path(ns.path)
     if not path.exists():
         raise UsageError(f"no such file: {ns.path}")
+    text = ""
     try:
         text = read_certificate_text(path)
         document = certificate_latex(text, str(path))
     except CertificateError as e:
-        _print_error(e, text if "text" in locals() else "", str(path), err)
+        _print_error(e, text, str(path), err)
         return EXIT_ERROR
-    if ns.output:
-        with open(ns.output, "w", encoding="utf-8") as fh:
-            fh.write(document)
-    else:
-        out.write(document)
-    return EXIT_OK
+    return _emit(document, ns.output, out)
 
 
-def _cmd_derive(ns, out) -> int:
-    from .derive import derive
-    text = derive(ns.expression)
-    if ns.output:
-        with open(ns.output, "w", encoding="utf-8") as fh:
-            fh.write(text)
+def _emit(text: str, output, out) -> int:
+    """Write a command's document to -o FILE, or to the screen."""
+    if output:
+        try:
+            with open(output, "w", encoding="utf-8") as fh:
+                fh.write(text)
+        except OSError as e:
+            raise UsageError(f"cannot write {output}: {e.strerror}") from None
     else:
         out.write(text)
     return EXIT_OK
+
+
+def _cmd_derive(ns, out, err) -> int:
+    from .derive import derive
+    try:
+        text = derive(ns.expression)
+    except CertificateError as e:
+        _print_error(e, ns.expression, "expression", err)
+        return EXIT_ERROR
+    return _emit(text, ns.output, out)
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -281,11 +289,7 @@ def main(argv: Sequence[str] | None = None, out=None, err=None) -> int:
         if ns.command == "check":
             return _cmd_check(ns, out, err)
         if ns.command == "derive":
-            try:
-                return _cmd_derive(ns, out)
-            except CertificateError as e:
-                _print_error(e, ns.expression, "expression", err)
-                return EXIT_ERROR
+            return _cmd_derive(ns, out, err)
         if ns.command == "latex":
             return _cmd_latex(ns, out, err)
         if ns.command == "functions":

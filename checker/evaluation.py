@@ -200,7 +200,7 @@ class Evaluator:
 
     def _from_partition_table(self, args):
         """p_A(n) from a table kept for A and grown as needed (identities ask for n = 0, 1, 2, ...)."""
-        from .partitions import check_parts, partitions_by_table
+        from .partitions import check_parts
         n, parts = args
         if not (isinstance(n, Fraction) and n.denominator == 1 and isinstance(parts, tuple)):
             return None

@@ -11,7 +11,7 @@ True
 """
 from __future__ import annotations
 
-from fractions import Fraction
+from fractions import Fraction  # noqa: F401  (the doctests use it)
 
 __all__ = ["int_text", "text_int", "value_text"]
 

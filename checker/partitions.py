@@ -34,7 +34,6 @@ Fraction(0, 1)
 from __future__ import annotations
 
 from fractions import Fraction
-from functools import lru_cache
 from itertools import accumulate
 from math import factorial, gcd, prod
 

@@ -37,8 +37,8 @@ from math import comb, gcd, lcm
 from typing import Optional
 
 from . import expressions as ex
-from .errors import BudgetExceeded, CertificateError, DomainError
-from .partitions import PartitionQuasiPolynomial, check_parts
+from .errors import CertificateError, DomainError
+from .partitions import check_parts
 
 __all__ = ["Shape", "shape", "check_identity", "IdentityResult", "NotQuasiPolynomial"]
 

@@ -18,7 +18,6 @@ goes through it.  The file is read as a stream, one row at a time.
 from __future__ import annotations
 
 import csv
-import io
 import json
 import re
 from fractions import Fraction

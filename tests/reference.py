@@ -13,7 +13,6 @@ import contextlib
 from dataclasses import replace
 from fractions import Fraction
 from functools import lru_cache
-from math import gcd
 
 from checker import functions
 from checker.dedekind import dedekind_by_definition, generalized_dedekind_by_definition

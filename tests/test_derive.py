@@ -4,11 +4,10 @@ import random
 from fractions import Fraction
 
 import flint
-import pytest
 
 from checker import check_text
 from checker.cli import main
-from checker.derive import derive, derive_dedekind
+from checker.derive import derive_dedekind
 from conftest import flint_fraction
 
 

@@ -1,7 +1,7 @@
 """Fourier-Dedekind sums against a high-precision evaluation of the defining sum."""
 import random
 from fractions import Fraction
-from math import gcd, prod
+from math import gcd
 
 import mpmath
 import pytest

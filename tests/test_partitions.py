@@ -4,7 +4,6 @@ from fractions import Fraction
 from math import gcd
 
 import pytest
-import sympy
 from hypothesis import given, settings, strategies as st
 
 from checker.errors import DomainError

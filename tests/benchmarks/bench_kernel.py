@@ -14,7 +14,6 @@ from math import gcd
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 import flint  # noqa: E402
-import mpmath  # noqa: E402
 
 from checker.dedekind import dedekind  # noqa: E402
 from checker.fourier_dedekind import fourier_dedekind  # noqa: E402

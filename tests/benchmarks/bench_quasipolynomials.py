@@ -13,7 +13,6 @@ sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 from checker import check_text  # noqa: E402
 from checker.derive import derive_partitions  # noqa: E402
-from checker.evaluation import Evaluator  # noqa: E402
 from checker.floor_sums import floor_sum  # noqa: E402
 from checker.partitions import PartitionQuasiPolynomial, partitions_by_table  # noqa: E402
 from checker.polytopes import lattice_points  # noqa: E402

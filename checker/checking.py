@@ -141,6 +141,9 @@ class _Replay:
         self.facts = _Facts(self.normaliser)   # verified equalities only
         self.labels: dict = {}         # label -> line where it was given
         self.source_note = None
+        self.lemmas: dict = {}         # name -> lemmas.LemmaInfo, verified
+        self.using: tuple = ()         # certificates being checked for `use`, outermost first
+        self.library: dict = {}        # resolved path -> lemmas it proves (or the failure)
 
     # -- driving -------------------------------------------------------------
     def run(self):
@@ -333,6 +336,35 @@ class _Replay:
             return
         self._ok()
 
+    def _Lemma(self, stmt):
+        from .lemmas import LemmaCheck
+        if stmt.name in self.lemmas:
+            other = self.lemmas[stmt.name]
+            raise CertificateError(f"a lemma named '{stmt.name}' is already given ({other.origin}, line "
+                                   f"{other.line})").at(stmt)
+        check = LemmaCheck(self, stmt)
+        info = check.run()
+        if info is None:
+            return
+        self.lemmas[stmt.name] = info
+        self.report.checked += check.steps + 1
+        v = ", ".join(stmt.params)
+        cases = f" in {len(stmt.split.cases)} cases" if stmt.split else ""
+        self.report.notes.append(
+            f"line {stmt.pos.line}: lemma {stmt.name} holds for all integers {v} satisfying its "
+            f"assumptions: {check.steps} steps replayed symbolically{cases}; numeric second opinion "
+            f"at {check.count} instances ({check.summary})")
+
+    def _Use(self, stmt):
+        from .library import use_lemmas
+        for info in use_lemmas(self, stmt):
+            if info.name in self.lemmas and self.lemmas[info.name] is not info:
+                other = self.lemmas[info.name]
+                raise CertificateError(f"the lemma '{info.name}' from {info.origin} clashes with the "
+                                       f"lemma of that name from {other.origin} (line {other.line})").at(stmt)
+            self.lemmas[info.name] = info
+        self._ok()
+
     def _remember_equality(self, label, lhs_node, rhs_node):
         self.facts.add_nodes(label, lhs_node, rhs_node)
 
@@ -354,7 +386,13 @@ class _Replay:
 
     def _step(self, chain, index, step, prev_nf, prev_value):
         where = f"step {index} of the chain at line {chain.pos.line}"
+        facts = self.facts
         for ref in step.rules:
+            if ref.name == "lemma":
+                facts = self._lemma_fact(ref, where, facts)
+                if facts is None:
+                    return False, None, None
+                continue
             if not known_rule(ref.name):
                 near = difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
                 hint = f" (did you mean {near[0]}?)" if near else ""
@@ -366,8 +404,9 @@ class _Replay:
         next_nf = self.normaliser.normal(step.expr)
         positions = self.normaliser.positions
         next_value = nf_value(next_nf, self._call, self.limits)
-        rules = [(r.name, r.label) for r in step.rules]
-        verdict = check_step(prev_nf, next_nf, rules, self._call, self.facts, self.limits)
+        rules = [(r.name, r.label) if r.name != "lemma" else ("claim", f"lemma {r.label}")
+                 for r in step.rules]
+        verdict = check_step(prev_nf, next_nf, rules, self._call, facts, self.limits)
         values_ok = next_value == prev_value
         if verdict.rule_ok and values_ok:
             self._ok()
@@ -376,9 +415,27 @@ class _Replay:
                                       prev_value, next_value, positions))
         return False, next_nf, next_value
 
+    def _lemma_fact(self, ref, where, facts):
+        """The facts with the lemma `ref` instantiated at numbers, or None after a failure."""
+        from .assumptions import Assumptions
+        from .lemmas import Scope, instantiate
+        info = self.lemmas.get(ref.label)
+        if info is None:
+            from .lemmas import _unknown_lemma
+            self._fail(_unknown_lemma(ref, where, self.lemmas))
+            return None
+        try:
+            fact = instantiate(self.evaluator, info, ref, Assumptions(()), {})
+        except CertificateError as e:
+            self._fail(Failure(ref.pos.line, ref.pos.column, f"{where} does not follow: {e.message}",
+                               kind="refused", end_column=ref.pos.end_column))
+            return None
+        return Scope(facts, {f"lemma {ref.label}": fact})
+
     def _step_failure(self, where, step, rules, verdict, values_ok, prev_nf, next_nf,
                       prev_value, next_value, positions) -> Failure:
-        cited = ", ".join(n if n != "claim" else f"claim {l}" for n, l in rules)
+        cited = ", ".join(n if n != "claim" else (l if l.startswith("lemma ") else f"claim {l}")
+                          for n, l in rules)
         pos = step.expr.pos
         line, column, end = pos.line, pos.column, pos.end_column if pos.end_line == pos.line else None
         details = []

@@ -8,7 +8,8 @@ is handed (parsing, reporting and file handling live elsewhere):
   previous line, give the next line as a normal form; (2) the two lines have
   the same exact value;
 - the use of an earlier verified equality: previous - next = c (lhs - rhs);
-- a Frobenius witness: g is not representable and g+1, ..., g+min(A) are.
+- a Frobenius witness: g is not representable and g+1, ..., g+min(A) are;
+- that the cases of a lemma's case split cover every residue class allowed.
   (Identities between quasi-polynomials are decided in ``quasipolynomial``.)
 """
 from __future__ import annotations
@@ -21,7 +22,7 @@ from .normal import NF, atom_text, atoms, constant, scale, sub, substitute
 from .rules import RULES, WHOLE_LINE_RULES
 
 __all__ = ["compare", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule",
-           "frobenius_witness_problem", "representation_problem"]
+           "frobenius_witness_problem", "representation_problem", "uncovered_residues"]
 
 _MAX_CANDIDATES = 256
 
@@ -82,16 +83,16 @@ class StepVerdict:
     problem: str = ""                                # a whole-line rule's reason
 
 
-def _apply_atom_rule(rule, x: NF, target_atoms: set, limits, refusals: list) -> list[NF]:
+def _apply_atom_rule(rewrite, x: NF, target_atoms: set, refusals: list, limit) -> list[NF]:
     out = []
     for atom in sorted(atoms(x), key=atom_text):
         try:
-            replacements = rule.rewrite(atom, target_atoms, limits)
+            replacements = rewrite(atom, target_atoms)
         except RuleRefused as e:
             refusals.append((atom, e.message))
             continue
         for r in replacements:
-            y = substitute(x, atom, r, limits.terms if limits else None)
+            y = substitute(x, atom, r, limit)
             if y is not None:
                 out.append(y)
     return out
@@ -105,7 +106,11 @@ def _apply_value(x: NF, target: NF, call, refusals: list) -> list[NF]:
         return []
     y = x
     for atom in sorted(gone, key=atom_text):
-        v = call(*atom)
+        try:
+            v = call(*atom)
+        except RuleRefused as e:
+            refusals.append((atom, e.message))
+            return []
         if isinstance(v, tuple):
             refusals.append((atom, "this call gives a list, not a number"))
             return []
@@ -116,7 +121,7 @@ def _apply_value(x: NF, target: NF, call, refusals: list) -> list[NF]:
     return [y]
 
 
-def _apply_claim(x: NF, target: NF, fact) -> tuple[bool, str]:
+def _apply_claim(x: NF, target: NF, fact, multiplier_problem=None) -> tuple[bool, str]:
     lhs, rhs = fact
     diff = sub(x, target)
     claim = sub(lhs, rhs)
@@ -127,30 +132,42 @@ def _apply_claim(x: NF, target: NF, fact) -> tuple[bool, str]:
     m = next(iter(claim))
     c = diff.get(m, Fraction(0)) / claim[m]
     if c and scale(claim, c) == diff:
+        # with parameters, c must be defined wherever the lines are
+        why = multiplier_problem(c) if multiplier_problem else ""
+        if why:
+            return False, why
         return True, ""
     return False, ("the difference between the previous line and this one is not a multiple of "
                    "(left side - right side) of the claim")
 
 
-def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits) -> StepVerdict:
+def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits,
+               rewrite=None, multiplier_problem=None) -> StepVerdict:
     """Judgement (1): do the cited rules, in order, turn `prev` into `nxt`?
 
     `rules` is a list of (name, label) pairs; `facts` maps labels to verified
-    equalities (lhs NF, rhs NF); `call` evaluates an atom exactly.
+    equalities (lhs NF, rhs NF); `call` evaluates an atom exactly.  For lines
+    with parameters, `rewrite(name, atom, target_atoms)` applies a rule with the
+    side conditions derived from the assumptions, and `multiplier_problem(c)`
+    says why a multiple c of an equality may be undefined ('' when it is not).
     """
+    if rewrite is None:
+        def rewrite(name, atom, target):
+            return RULES[name].rewrite(atom, target, limits)
+    limit = limits.terms if limits else None
     verdict = StepVerdict(False)
     current = [prev]
     target_atoms = atoms(nxt)
     for index, (name, label) in enumerate(rules):
         if name == "claim":
             if index != len(rules) - 1:
-                verdict.problem = "`claim LABEL` must be the last rule of a step"
+                verdict.problem = "`claim LABEL` and `lemma NAME(...)` must be the last rule of a step"
                 return verdict
             if label not in facts:
                 verdict.problem = f"there is no verified equality labelled '{label}' above this step"
                 return verdict
             for x in current:
-                ok, why = _apply_claim(x, nxt, facts[label])
+                ok, why = _apply_claim(x, nxt, facts[label], multiplier_problem)
                 if ok:
                     verdict.rule_ok = True
                     return verdict
@@ -163,7 +180,8 @@ def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits) -> Ste
             elif name == "value":
                 produced.extend(_apply_value(x, nxt, call, verdict.refusals))
             else:
-                produced.extend(_apply_atom_rule(RULES[name], x, target_atoms, limits, verdict.refusals))
+                produced.extend(_apply_atom_rule(lambda a, t: rewrite(name, a, t), x, target_atoms,
+                                                 verdict.refusals, limit))
         current = _unique(produced)[:_MAX_CANDIDATES]
         if not current:
             return verdict
@@ -180,6 +198,16 @@ def _unique(xs: list) -> list:
             seen.add(key)
             out.append(x)
     return out
+
+
+def uncovered_residues(facts, var: str, m: int, residues) -> list:
+    """The classes var = r (mod m) that the assumptions allow and no case covers.
+
+    `facts.possible_residues` may keep a class the assumptions in fact exclude,
+    never the other way round, so an empty answer means the cases cover every case.
+    """
+    given = set(residues)
+    return [r for r in facts.possible_residues(var, m) if r not in given]
 
 
 def representation_problem(terms, parts, m) -> str:

@@ -44,6 +44,8 @@ def value_text(v) -> str:
         return "[" + ", ".join(value_text(x) for x in v) + "]"
     if isinstance(v, int):
         return int_text(v)
+    if not hasattr(v, "denominator"):       # a rational function of a lemma's parameters
+        return str(v)
     if v.denominator == 1:
         return int_text(v.numerator)
     return f"{int_text(v.numerator)}/{int_text(v.denominator)}"

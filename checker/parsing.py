@@ -249,6 +249,48 @@ class _Build(Transformer):
     def use_claim(self, children):
         return st.RuleRef("claim", str(children[0]), _tpos(children[0]))
 
+    def use_lemma(self, children):
+        name, args = children[0], children[1] or []
+        return st.RuleRef("lemma", str(name), _tpos(name), tuple(args))
+
+    # -- lemmas --------------------------------------------------------------
+    def lemma(self, children):
+        name = str(children[1])
+        params = children[3]
+        body = children[6:]
+        conditions = tuple(c for a in body if isinstance(a, list) for c in a)
+        show = next(i for i, c in enumerate(body) if isinstance(c, Token) and c == "show")
+        lhs, rhs = body[show + 1], body[show + 3]
+        chains = tuple(c for c in body[show + 4:] if isinstance(c, st.Chain))
+        split = next((c for c in body if isinstance(c, st.Split)), None)
+        return st.Lemma(name, params, conditions, lhs, rhs, chains, split, _span(children))
+
+    def parameters(self, children):
+        return tuple(str(c) for c in children)
+
+    def assume(self, children):
+        return [c for c in children if isinstance(c, st.Condition)]
+
+    def plain_condition(self, children):
+        lhs, relation, rhs = children
+        return st.Condition(lhs, relation, rhs, None, _span(children))
+
+    def congruence_condition(self, children):
+        lhs, _sym, rhs, modulus = children
+        return st.Condition(lhs, "==", rhs, modulus, _span(children))
+
+    def split(self, children):
+        var, modulus = str(children[1]), children[3]
+        cases = tuple(c for c in children[4:] if isinstance(c, st.Case))
+        return st.Split(var, modulus, cases, _span(children))
+
+    def case(self, children):
+        chains = tuple(c for c in children[3:] if isinstance(c, st.Chain))
+        return st.Case(children[1], chains, _span(children))
+
+    def use(self, children):
+        return st.Use(str(children[1])[1:-1], _span(children))
+
 
 def _parse(text: str, start: str, limits: Limits):
     if "\x00" in text:
@@ -297,7 +339,7 @@ _WORDS = {
     "$END": "the end of the text",
 }
 
-_STATEMENT_WORDS = {"title", "source", "let", "claim", "chain", "identity", "witness"}
+_STATEMENT_WORDS = {"title", "source", "let", "claim", "chain", "identity", "witness", "lemma", "use"}
 
 
 def _describe_terminal(name: str) -> str:
@@ -345,7 +387,8 @@ def _end_position(text: str) -> tuple[int, int]:
 _LANGUAGE_CHARACTERS = set("+-*/^()[],.=<>!:#\"_'\u2212\u00b7\u00d7\u2264\u2265\u2260\u2261 \t\r\n")
 _NOT_IN_EXPRESSIONS = {"EQUALS", "LESS_EQUAL", "GREATER_EQUAL", "NOT_EQUAL", "LESS", "GREATER",
                        "CONGRUENT", "BY", "MOD", "TITLE", "SOURCE", "LET", "CLAIM", "CHAIN", "COLON",
-                       "IDENTITY", "WITNESS", "FOR", "ALL", "PERIOD", "DEGREE"}
+                       "IDENTITY", "WITNESS", "FOR", "ALL", "PERIOD", "DEGREE", "LEMMA", "USE",
+                       "SHOW", "ASSUME", "CASES", "CASE", "END"}
 
 
 def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> SyntaxProblem:

@@ -7,7 +7,8 @@ from typing import Optional, Union
 from .expressions import NOWHERE, Expr, Pos
 
 __all__ = ["Title", "Source", "Let", "Claim", "Congruence", "RuleRef", "Step",
-           "Chain", "Identity", "Representation", "Witness", "Statement", "Certificate"]
+           "Chain", "Identity", "Representation", "Witness", "Condition", "Case", "Split",
+           "Lemma", "Use", "Statement", "Certificate"]
 
 
 @dataclass(frozen=True)
@@ -51,10 +52,12 @@ class Congruence:
 
 @dataclass(frozen=True)
 class RuleRef:
-    """A rule named in a step: `reciprocity`, or `claim LABEL` (name 'claim')."""
+    """A rule named in a step: `reciprocity`, `claim LABEL` (name 'claim', label set) or
+    `lemma NAME(args)` (name 'lemma', label the lemma's name, args its values)."""
     name: str
     label: Optional[str] = None
     pos: Pos = NOWHERE
+    args: tuple = ()
 
 
 @dataclass(frozen=True)
@@ -102,7 +105,55 @@ class Witness:
     pos: Pos = NOWHERE
 
 
-Statement = Union[Title, Source, Let, Claim, Congruence, Chain, Identity, Witness]
+@dataclass(frozen=True)
+class Condition:
+    """An assumption of a lemma: lhs RELATION rhs, or lhs == rhs mod modulus (relation '==')."""
+    lhs: Expr
+    relation: str
+    rhs: Expr
+    modulus: Optional[Expr] = None
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Case:
+    """One residue class of a case split, with the chains that prove it."""
+    residue: Expr
+    chains: tuple
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Split:
+    """cases VAR mod MODULUS, then one Case per residue class."""
+    var: str
+    modulus: Expr
+    cases: tuple
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Lemma:
+    """For all integer params satisfying the conditions: lhs = rhs, proved by chains
+    (the last one goes from lhs to rhs) or by a case split whose cases do."""
+    name: str
+    params: tuple
+    conditions: tuple
+    lhs: Expr
+    rhs: Expr
+    chains: tuple
+    split: Optional[Split]
+    pos: Pos = NOWHERE
+
+
+@dataclass(frozen=True)
+class Use:
+    """use "NAME": the lemmas of a bundled certificate, or of a file beside this one."""
+    target: str
+    pos: Pos = NOWHERE
+
+
+Statement = Union[Title, Source, Let, Claim, Congruence, Chain, Identity, Witness, Lemma, Use]
 
 
 @dataclass(frozen=True)

@@ -1,0 +1,98 @@
+"""`use "NAME"`: lemmas proved in another certificate.
+
+NAME is either a bundled certificate (``use "dedekind-lemmas"`` reads
+certificates/dedekind-lemmas.qcert shipped with quasicert) or a file beside
+the using certificate (``use "my-lemmas.qcert"``, ``use "lemmas/forms.qcert"``).
+Certificates come from strangers, so a file name may not be absolute, may not
+climb out with `..`, and must stay inside the using certificate's folder after
+symbolic links are followed.  The used certificate is checked in full first
+(its failures make the `use` fail); each file is checked once per run; cycles
+and chains deeper than 16 are refused.
+"""
+from __future__ import annotations
+
+import re
+from pathlib import Path, PurePosixPath
+
+from .errors import CertificateError, UnreadableFile
+from .parsing import resource_dir
+
+__all__ = ["use_lemmas", "resolve_use"]
+
+_MAX_DEPTH = 16
+_BUNDLED_NAME = re.compile(r"[a-z0-9][a-z0-9-]{0,63}")
+
+
+def resolve_use(using: str, target: str) -> Path:
+    """The file `target` names, seen from the certificate `using` (a path or '<text>')."""
+    if not target.endswith(".qcert"):
+        if not _BUNDLED_NAME.fullmatch(target):
+            raise CertificateError(f"'{target}' is not a bundled certificate name (lower-case letters, digits "
+                                   "and '-'); a file beside this one ends in .qcert")
+        path = resource_dir("checker.certificates", "certificates") / f"{target}.qcert"
+        if not path.is_file():
+            raise CertificateError(f"there is no bundled certificate '{target}'; `quasicert check` with no "
+                                   "path lists and checks them")
+        return path.resolve()
+    parts = PurePosixPath(target).parts
+    if "\\" in target or target.startswith("/") or ".." in parts or not parts or ":" in target:
+        raise CertificateError(f"use takes a file in this certificate's folder or below it, written "
+                               f"with '/' and without '..', not '{target}'")
+    if using.startswith("<"):
+        raise CertificateError("a certificate given as text has no folder: it can use bundled "
+                               "certificates only")
+    base = Path(using).resolve().parent
+    path = (base / Path(*parts)).resolve()
+    if base != path and base not in path.parents:
+        raise CertificateError(f"'{target}' leads outside this certificate's folder")
+    return path
+
+
+def use_lemmas(replay, stmt) -> list:
+    """The lemmas of the certificate `stmt.target` names, checked first (cached per run)."""
+    from .checking import _Replay, read_certificate_text
+    from .parsing import parse_certificate
+    from .report import Report
+    try:
+        path = resolve_use(replay.report.name, stmt.target)
+    except CertificateError as e:
+        raise e.at(stmt)
+    key = str(path)
+    here = _key_of(replay.report.name)
+    chain = replay.using + ((here,) if here else ())
+    if key in chain:
+        loop = " uses ".join(Path(k).name for k in chain[chain.index(key):] + (key,))
+        raise CertificateError(f"use makes a cycle: {loop}").at(stmt)
+    if len(chain) >= _MAX_DEPTH:
+        raise CertificateError(f"use is nested more than {_MAX_DEPTH} certificates deep").at(stmt)
+    result = replay.library.get(key)
+    if result is None:
+        try:
+            text = read_certificate_text(path, replay.limits)
+            cert = parse_certificate(text, key, replay.limits)
+        except (UnreadableFile, CertificateError) as e:
+            result = e
+        else:
+            report = Report(name=key, text=text)
+            nested = _Replay(cert, report, replay.limits, False)
+            nested.using = chain
+            nested.library = replay.library
+            nested.deadline = replay.deadline
+            nested.run()
+            result = report.failures[0] if report.failures else list(nested.lemmas.values())
+        replay.library[key] = result
+    if isinstance(result, list):
+        return result
+    where = f"{stmt.target}:{result.line}:{result.column}" if getattr(result, "line", None) else stmt.target
+    message = getattr(result, "message", str(result))
+    raise CertificateError(f"{stmt.target} does not check, so its lemmas cannot be used: {where}: "
+                           f"{message}").at(stmt)
+
+
+def _key_of(name: str) -> str:
+    if name.startswith("<"):
+        return ""
+    try:
+        return str(Path(name).resolve())
+    except OSError:
+        return ""

@@ -352,7 +352,7 @@ class _Replay:
         cases = f" in {len(stmt.split.cases)} cases" if stmt.split else ""
         self.report.notes.append(
             f"line {stmt.pos.line}: lemma {stmt.name} holds for all integers {v} satisfying its "
-            f"assumptions: {check.steps} steps replayed symbolically{cases}; numeric second opinion "
+            f"assumptions: {check.steps} step{'s' if check.steps != 1 else ''} replayed symbolically{cases}; numeric second opinion "
             f"at {check.count} instances ({check.summary})")
 
     def _Use(self, stmt):

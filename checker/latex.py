@@ -141,6 +141,70 @@ _REL = {"=": "=", "<": "<", "<=": r"\le", ">": ">", ">=": r"\ge", "!=": r"\ne"}
 _FAIL = r"\qquad\fbox{\text{does not hold}}"
 
 
+def _rule_latex(r) -> str:
+    if r.name == "claim":
+        return f"claim {r.label}"
+    if r.name == "lemma":
+        return f"lemma {r.label}(" + ", ".join(_plain(a) for a in r.args) + ")"
+    return r.name.replace("_", " ")
+
+
+def _plain(node) -> str:
+    return "$" + expression_latex(node) + "$"
+
+
+def _chain_latex(s: st.Chain, failed_lines) -> list:
+    lines = [r"\begin{align*}"]
+    for i, step in enumerate(s.steps):
+        head = expression_latex(s.start) if i == 0 else ""
+        rules = ", ".join(_rule_latex(r) for r in step.rules)
+        mark = _FAIL if any(step.pos.line <= ln <= step.pos.end_line for ln in failed_lines) else ""
+        end = r" \\" if i < len(s.steps) - 1 else ""
+        lines.append(f"{head} &= {expression_latex(step.expr)} && \\text{{({_rules_text(rules)})}}{mark}{end}")
+    lines.append(r"\end{align*}")
+    return lines
+
+
+def _rules_text(rules: str) -> str:
+    # lemma arguments are already math; the rest is text
+    parts = rules.split("$")
+    return "".join(_text(p) if i % 2 == 0 else f"${p}$" for i, p in enumerate(parts))
+
+
+def _condition_latex(c: st.Condition) -> str:
+    if c.relation == "==":
+        return (expression_latex(c.lhs) + r" \equiv " + expression_latex(c.rhs) + r" \pmod{"
+                + expression_latex(c.modulus) + "}")
+    return expression_latex(c.lhs) + f" {_REL[c.relation]} " + expression_latex(c.rhs)
+
+
+def _lemma_chains(s: st.Lemma):
+    yield from s.chains
+    if s.split:
+        for case in s.split.cases:
+            yield from case.chains
+
+
+def _lemma_latex(s: st.Lemma, failed_lines, statement_fails: bool) -> list:
+    params = ", ".join(_name(p) for p in s.params)
+    conds = ", ".join("$" + _condition_latex(c) + "$" for c in s.conditions)
+    out = [r"\paragraph{Lemma (" + _text(s.name) + r").} For all integers $" + params + "$"
+           + (" with " + conds if conds else "") + ":",
+           r"\[ " + expression_latex(s.lhs) + " = " + expression_latex(s.rhs)
+           + (_FAIL if statement_fails else "") + r" \]",
+           r"\noindent\emph{Proof.}"]
+    for chain in s.chains:
+        out.extend(_chain_latex(chain, failed_lines))
+    if s.split:
+        for case in s.split.cases:
+            out.append(r"\noindent Case $" + _name(s.split.var) + r" \equiv " + expression_latex(case.residue)
+                       + r" \pmod{" + expression_latex(s.split.modulus) + "}$:")
+            for chain in case.chains:
+                out.extend(_chain_latex(chain, failed_lines))
+    out.append(r"\hfill$\square$")
+    return out
+
+
 def certificate_latex(text: str, name: str = "<text>") -> str:
     """A standalone LaTeX document for a certificate, with failing statements marked."""
     cert = parse_certificate(text, name)
@@ -170,16 +234,12 @@ def certificate_latex(text: str, name: str = "<text>") -> str:
             out.append(r"\[ " + expression_latex(s.lhs) + r" \equiv " + expression_latex(s.rhs)
                        + r" \pmod{" + expression_latex(s.modulus) + "}" + mark + r" \]")
         elif isinstance(s, st.Chain):
-            lines = [r"\begin{align*}"]
-            for i, step in enumerate(s.steps):
-                head = expression_latex(s.start) if i == 0 else ""
-                rules = ", ".join(r.name.replace("_", " ") if r.name != "claim" else f"claim {r.label}"
-                                  for r in step.rules)
-                mark = _FAIL if any(step.pos.line <= ln <= step.pos.end_line for ln in failed_lines) else ""
-                end = r" \\" if i < len(s.steps) - 1 else ""
-                lines.append(f"{head} &= {expression_latex(step.expr)} && \\text{{({_text(rules)})}}{mark}{end}")
-            lines.append(r"\end{align*}")
-            out.extend(lines)
+            out.extend(_chain_latex(s, failed_lines))
+        elif isinstance(s, st.Lemma):
+            out.extend(_lemma_latex(s, failed_lines, fails(s) and not any(
+                fails(c) for c in _lemma_chains(s))))
+        elif isinstance(s, st.Use):
+            out.append(r"\paragraph{Uses} the lemmas of \texttt{" + _text(s.target) + "}.")
         elif isinstance(s, st.Identity):
             mark = _FAIL if fails(s) else ""
             rng = (r"\text{for all integers } " + _name(s.var) if s.lower is None else

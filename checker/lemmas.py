@@ -31,7 +31,8 @@ from .numbers import value_text
 from .rational_functions import RationalFunction
 from .report import Failure
 from .rules import RULES, WHOLE_LINE_RULES
-from .symbolic import SymbolicNormaliser, is_symbolic, line_text, value_label
+from .normal import sub
+from .symbolic import SymbolicNormaliser, atom_label, is_symbolic, line_text, value_label
 from .symbolic_rules import rewrite as symbolic_rewrite
 
 __all__ = ["LemmaInfo", "LemmaCheck", "instantiate", "Scope", "lemma_facts"]
@@ -115,6 +116,9 @@ def instantiate(evaluator, info: LemmaInfo, ref: st.RuleRef, facts: Assumptions,
             why = facts.implies(kind, lhs, rhs, modulus)
         except CertificateError as e:
             why = e.message
+        if why and not facts.params:
+            raise RuleRefused(f"lemma {info.name} needs {text}, which is false for {shown}",
+                              ref.pos.line, ref.pos.column)
         if why:
             raise RuleRefused(f"lemma {info.name} needs {text}, which does not follow for {shown}: {why}",
                               ref.pos.line, ref.pos.column)
@@ -272,7 +276,6 @@ class LemmaCheck:
         details = []
         if verdict.problem:
             details.append(verdict.problem)
-        from .symbolic import atom_label
         for atom, reason in verdict.refusals[:4]:
             target = f" to {atom_label(atom)}" if atom else ""
             details.append(f"{cited} cannot be applied{target}: {reason}")
@@ -286,9 +289,8 @@ class LemmaCheck:
                 line, column = p.line, p.column
                 end = p.end_column if p.end_line == p.line else None
             elif not set(_atoms(nxt)) ^ set(_atoms(closest)):
-                diff = {m: c for m, c in nxt.items() if closest.get(m) != c}
-                if diff:
-                    details.append("the lines differ in their coefficients (the algebra does not cancel)")
+                details.append(f"difference (this line - what the rule gives): "
+                               f"{_short(line_text(sub(nxt, closest)))}, not 0")
         details += self._numeric_step(step, case)
         return Failure(line, column, f"{where} does not follow by {cited}", details, kind="failed",
                        end_column=end)

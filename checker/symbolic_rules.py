@@ -86,7 +86,7 @@ def _reduce(facts, limits, atom, target):
         if other[0] != name or other == atom or other[1][pos + 1] != k or other[1][:pos] != args[:pos]:
             continue
         x = other[1][pos]
-        why = facts.divides(k, x - h)
+        why = facts.divides(k, h - x)
         if why:
             reasons.append(why)
         else:

@@ -326,7 +326,7 @@ class Assumptions:
         if L == 1:
             return None
         rs = self.residues(n, L)
-        if rs == {0}:
+        if rs is not None and rs <= {0}:       # (no residue at all: no allowed values)
             return None
         if rs is None:
             return f"the assumptions do not make {v} an integer"

@@ -428,7 +428,7 @@ class _Replay:
             fact = instantiate(self.evaluator, info, ref, Assumptions(()), {})
         except CertificateError as e:
             self._fail(Failure(ref.pos.line, ref.pos.column, f"{where} does not follow: {e.message}",
-                               kind="refused", end_column=ref.pos.end_column))
+                               kind="failed", end_column=ref.pos.end_column))
             return None
         return Scope(facts, {f"lemma {ref.label}": fact})
 

@@ -25,6 +25,8 @@ SMALL = 120
 LARGE = 30
 _SMALL_TRIES = 20_000
 _LARGE_TRIES = 600
+_MAX_PLANS = 50_000
+_SMALL_PLANS = 4_000        # parameter choices worked out before the small search gives up
 
 
 def names_in(node) -> set:
@@ -61,6 +63,8 @@ class Sampler:
         self.names = [names_in(c.lhs) | names_in(c.rhs) | (names_in(c.modulus) if c.modulus else set())
                       for c in self.conditions]
         self.tried = 0
+        self._plans: dict = {}
+        self.planned = 0
 
     # -- exact filtering ----------------------------------------------------
     def _value(self, node, env):
@@ -89,6 +93,15 @@ class Sampler:
 
     # -- one parameter at a time ------------------------------------------------
     def _plan(self, x: str, env: dict) -> _Plan | None:
+        key = (x, tuple(sorted(env.items())))
+        if key not in self._plans:
+            if len(self._plans) > _MAX_PLANS:
+                self._plans.clear()
+            self._plans[key] = self._new_plan(x, env)
+        return self._plans[key]
+
+    def _new_plan(self, x: str, env: dict) -> _Plan | None:
+        self.planned += 1
         lo = hi = None
         r, m = 0, 1
         multiple = None
@@ -178,7 +191,7 @@ class Sampler:
                     found.append(env)
                     if len(found) >= count:
                         return found
-                if self.tried >= _SMALL_TRIES:
+                if self.tried >= _SMALL_TRIES or self.planned >= _SMALL_PLANS:
                     return found
         return found
 

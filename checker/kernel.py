@@ -22,7 +22,8 @@ from .normal import NF, atom_text, atoms, constant, scale, sub, substitute
 from .rules import RULES, WHOLE_LINE_RULES
 
 __all__ = ["compare", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule",
-           "frobenius_witness_problem", "representation_problem", "uncovered_residues"]
+           "frobenius_witness_problem", "representation_problem", "uncovered_residues",
+           "conclusion_problem"]
 
 _MAX_CANDIDATES = 256
 
@@ -198,6 +199,15 @@ def _unique(xs: list) -> list:
             seen.add(key)
             out.append(x)
     return out
+
+
+def conclusion_problem(start: NF, end: NF, lhs: NF, rhs: NF) -> str:
+    """'' when a chain from `start` to `end` proves lhs = rhs: the same normal forms."""
+    if start != lhs:
+        return "start"
+    if end != rhs:
+        return "end"
+    return ""
 
 
 def uncovered_residues(facts, var: str, m: int, residues) -> list:

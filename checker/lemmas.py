@@ -26,7 +26,7 @@ from .assumptions import Assumptions
 from .errors import CertificateError, DomainError, RuleRefused
 from .functions import REGISTRY
 from .instances import Sampler, names_in
-from .kernel import check_step, known_rule, uncovered_residues
+from .kernel import check_step, conclusion_problem, known_rule, uncovered_residues
 from .numbers import value_text
 from .rational_functions import RationalFunction
 from .report import Failure
@@ -247,7 +247,7 @@ class LemmaCheck:
                     extra[f"lemma {ref.label}"] = instantiate(self.evaluator, info, ref, facts, self.env)
                 except CertificateError as e:
                     self.replay._fail(Failure(ref.pos.line, ref.pos.column,
-                                              f"{where} does not follow: {e.message}", kind="refused",
+                                              f"{where} does not follow: {e.message}", kind="failed",
                                               end_column=ref.pos.end_column))
                     return None, None
                 rules.append(("claim", f"lemma {ref.label}"))
@@ -333,17 +333,18 @@ class LemmaCheck:
     def _proves(self, chain, start, end, facts, case) -> bool:
         norm = SymbolicNormaliser(self.evaluator, facts, self.env)
         lhs, rhs = norm.normal(self.stmt.lhs), norm.normal(self.stmt.rhs)
-        for have, want, which, node in ((start, lhs, "start at the left side", chain.start),
-                                        (end, rhs, "end at the right side", chain.steps[-1].expr)):
-            if have != want:
-                p = node.pos
-                self.replay._fail(Failure(
-                    p.line, p.column, f"lemma {self.stmt.name}{case}: the last chain must {which} of `show`",
-                    [f"the chain {'starts' if 'start' in which else 'ends'} at: {_short(line_text(have))}",
-                     f"`show` has:        {_short(line_text(want))}"], kind="failed",
-                    end_column=p.end_column if p.end_line == p.line else None))
-                return False
-        return True
+        problem = conclusion_problem(start, end, lhs, rhs)
+        if not problem:
+            return True
+        have, want, node = (start, lhs, chain.start) if problem == "start" else (end, rhs, chain.steps[-1].expr)
+        which = "start at the left side" if problem == "start" else "end at the right side"
+        p = node.pos
+        self.replay._fail(Failure(
+            p.line, p.column, f"lemma {self.stmt.name}{case}: the last chain must {which} of `show`",
+            [f"the chain {'starts' if problem == 'start' else 'ends'} at: {_short(line_text(have))}",
+             f"`show` has:        {_short(line_text(want))}"], kind="failed",
+            end_column=p.end_column if p.end_line == p.line else None))
+        return False
 
     def _cases(self, split: st.Split, facts, scope):
         stmt = self.stmt
@@ -364,6 +365,9 @@ class LemmaCheck:
             r = r.numerator % m
             if r in residues:
                 raise CertificateError(f"the case {split.var} = {r} (mod {m}) is given twice").at(case)
+            if r not in facts.possible_residues(split.var, m):
+                raise CertificateError(f"the case {split.var} = {r} (mod {m}) cannot happen under the "
+                                       "assumptions; leave it out").at(case)
             residues.append(r)
         missing = uncovered_residues(facts, split.var, m, residues)
         if missing:

@@ -257,6 +257,8 @@ class RationalFunction:
         den = p_scale(self.den, scale_by)
         if p_constant(den) == 1:
             return poly_text(num)
+        if len(num) > 1 and num[_leading(num)] < 0:      # -(k - 1)/(12*k), not (-k + 1)/(12*k)
+            return "-" + str(RationalFunction(p_scale(self.num, Fraction(-1)), self.den))
         n, d = poly_text(num), poly_text(den)
         if len(num) > 1:
             n = f"({n})"

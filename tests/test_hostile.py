@@ -10,7 +10,7 @@ from checker import check_file, check_text
 from checker.cli import main
 from checker.limits import Limits
 
-KINDS = {"failed", "error", "syntax error", "limit", "unreadable"}
+KINDS = {"failed", "error", "syntax error", "limit", "unreadable"}   # never "checker bug"
 
 
 def verdict(report):
@@ -47,7 +47,10 @@ TOKENS = ["claim", "chain", "let", "title", "source", "=", "==", "mod", "by", "r
           '"x"', "x", "j", "<", "<=", "!=", "2^64", "1/0", "identity", "for", "all", "n", ">=", ":",
           "period", "degree", "witness", "periodic(", "constituents(", "lattice_points(", "[[0, 0], [1, 2]]",
           "interior_lattice_points(", "lattice_points_in(", "partitions_extended(", "sawtooth(", "n/2",
-          "[1, 2]", "[]", "[[]]", "t", "frobenius([6, 9, 20]) = 43:", "44 = 4*6 + 20"]
+          "[1, 2]", "[]", "[[]]", "t", "frobenius([6, 9, 20]) = 43:", "44 = 4*6 + 20",
+          "lemma", "lemma f(k):", "assume", "k >= 1", "k == 1 mod 2", "gcd(k, 2) = 1", "show", "end",
+          "cases k mod 2", "case 1:", "k", "h", "dedekind(2, k)", "lemma f(k)", "use", '"dedekind-lemmas"',
+          '"../x.qcert"', "k/2", "1/(k - 3)", "floor(k/2)", "mod(k, 3)"]
 
 
 @settings(max_examples=400, deadline=None)
@@ -207,3 +210,49 @@ def test_every_function_with_arbitrary_arguments(name, args, kind):
 def test_identity_with_a_missing_argument_names_the_arity():
     f = check_text("identity for n >= 0: binomial(n) = 0\n").failure
     assert f.message == "binomial takes 2 arguments (n, j), not 1"
+
+
+# -- lemmas: structured random texts reach a verdict, never a crash or a "checker bug" ---------
+
+_LEAVES = ["k", "h", "1", "2", "3", "-1", "0", "k/2", "h - k", "k + 1", "2*k + 1", "k^2"]
+
+
+@st.composite
+def _lemma_expr(draw, depth=0):
+    if depth > 2 or draw(st.integers(0, 3)) == 0:
+        return draw(st.sampled_from(_LEAVES))
+    a = draw(_lemma_expr(depth + 1))
+    b = draw(_lemma_expr(depth + 1))
+    form = draw(st.sampled_from(["dedekind({a}, {b})", "({a}) + ({b})", "({a})*({b})", "({a})/({b})",
+                                 "sawtooth(({a})/3)", "floor(({a})/2)", "mod({a}, {b})", "gcd({a}, {b})",
+                                 "({a})^2", "-({a})", "generalized_dedekind(1, {a}, {b})",
+                                 "binomial({a}, 2)", "bernoulli(2, {a})", "partitions({a}, [1, 2])"]))
+    return form.format(a=a, b=b)
+
+
+_CONDITIONS = ["k >= 1", "k >= 3", "h >= 1", "h < k", "k == 1 mod 2", "h == 2 mod 3", "gcd(h, k) = 1",
+               "h*k == 1 mod 5", "h^2 == -1 mod k", "k <= 0", "k = 2", "gcd(k, 0) = 1", "k == 0 mod 0"]
+_RULE_NAMES = ["reduce", "reciprocity", "negate", "inverse", "common_factor", "three_term", "unfold",
+               "value", "arithmetic", "claim c", "lemma f(k, h)", "lemma f(k)", "lemma g(1, 2)"]
+
+
+@st.composite
+def _lemma_text(draw):
+    conds = draw(st.lists(st.sampled_from(_CONDITIONS), max_size=4))
+    lhs, rhs = draw(_lemma_expr()), draw(_lemma_expr())
+    steps = draw(st.lists(st.tuples(_lemma_expr(), st.lists(st.sampled_from(_RULE_NAMES), min_size=1,
+                                                               max_size=2)), min_size=1, max_size=3))
+    chain = "  chain c: " + lhs + "\n" + "".join(f"    = {e} by {', '.join(r)}\n" for e, r in steps)
+    split = draw(st.sampled_from(["", "  cases k mod 2\n  case 0:\n" + chain + "  case 1:\n" + chain]))
+    body = chain if not split else split
+    head = draw(st.sampled_from(["lemma f(k, h):\n", "lemma f(k):\n", "lemma f(k, k):\n"]))
+    assume = ("  assume " + ", ".join(conds) + "\n") if conds else ""
+    return head + assume + f"  show {lhs} = {rhs}\n" + body + "end\nchain dedekind(2, 7) = 1/7 by lemma f(7, 3)\n"
+
+
+@settings(max_examples=300, deadline=None)
+@given(_lemma_text())
+def test_random_lemmas_reach_a_verdict(text):
+    start = time.perf_counter()
+    verdict(check_text(text))
+    assert time.perf_counter() - start < 20

@@ -17,11 +17,27 @@ def test_every_bundled_certificate_has_latex_with_every_step(path):
     assert doc.startswith(r"\documentclass{article}") and doc.rstrip().endswith(r"\end{document}")
     assert r"\fbox" not in doc                       # all verified, nothing marked
     cert = parse_certificate(text)
-    steps = [step for s in cert.statements if isinstance(s, st.Chain) for step in s.steps]
+    steps = [step for chain in _chains(cert) for step in chain.steps]
     assert doc.count(r" && \text{(") == len(steps)   # one rule note per step
     for step in steps:
+        if any(r.name == "lemma" for r in step.rules):
+            assert f"lemma {step.rules[-1].label.replace('_', chr(92) + '_')}(" in doc
+            continue
         rules = ", ".join(r.name.replace("_", " ") if r.name != "claim" else f"claim {r.label}" for r in step.rules)
         assert f"\\text{{({rules.replace('_', chr(92) + '_')})}}" in doc
+    lemmas = [s for s in cert.statements if isinstance(s, st.Lemma)]
+    assert doc.count(r"\paragraph{Lemma (") == len(lemmas)
+
+
+def _chains(cert):
+    for s in cert.statements:
+        if isinstance(s, st.Chain):
+            yield s
+        elif isinstance(s, st.Lemma):
+            yield from s.chains
+            if s.split:
+                for case in s.split.cases:
+                    yield from case.chains
 
 
 def test_failing_step_is_marked():

@@ -65,6 +65,8 @@ def test_derived_forms_of_the_library_against_flint():
             assert s(3, k) == Fraction(k * k - 9 * k + 10 - 2 * k * (3 - 2 * (k % 3)), 36 * k), k
         if k % 2 and k >= 3:
             assert s(k - 2, k) == -Fraction((k - 1) * (k - 5), 24 * k), k
+        if k % 6 == 1:
+            assert s((k + 2) // 3, k) == Fraction(k * k - 18 * k + 13, 72 * k) + Fraction(1, 18), k
 
 
 # -- the library is proved, and usable -------------------------------------------------------
@@ -73,7 +75,7 @@ def test_library_is_proved_symbolically_with_a_second_opinion():
     report = check_file(LIBRARY)
     assert report.ok, report.failures
     notes = [n for n in report.notes if "lemma" in n]
-    assert len(notes) == 10
+    assert len(notes) == 11
     assert all("replayed symbolically" in n and "instances" in n for n in notes)
     assert any("in 2 cases" in n for n in notes)
 

@@ -49,7 +49,7 @@ from .rational_functions import (RationalFunction, as_polynomial, exact_quotient
 __all__ = ["Assumptions"]
 
 _MAX_RESIDUE_TUPLES = 100_000
-_MAX_MODULUS = 10**6
+_MAX_MODULUS = 100_000
 _EUCLID_DEPTH = 8
 
 

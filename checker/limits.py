@@ -35,6 +35,8 @@ class Limits:
     tokens: int = 2_000_000
     #: wall-clock seconds for one certificate (checked between statements and steps)
     seconds: int = 600
+    #: total degree of a polynomial in a lemma's parameters (numerators and denominators)
+    lemma_degree: int = 200
 
     def require(self, name: str, needed: int, what: str) -> None:
         """Refuse when `needed` exceeds the limit called `name`."""
@@ -59,7 +61,7 @@ class Limits:
 _UNITS = {"integer_bits": " bits", "terms": " steps", "unfold_terms": " terms",
           "bernoulli_index": "", "list_length": " entries", "literal_digits": " digits",
           "nesting": " levels", "file_bytes": " bytes",
-          "seconds": " seconds", "tokens": " tokens"}
+          "seconds": " seconds", "tokens": " tokens", "lemma_degree": ""}
 
 
 def _short(n: int) -> str:

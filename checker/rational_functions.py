@@ -193,8 +193,14 @@ def _factor_cached(key: tuple) -> tuple:
     return tuple((tuple(sorted(_from_sympy(f, names).items())), m) for f, m in factors)
 
 
+_FACTOR_DEGREE = 40      # beyond this, factoring may take long: the polynomial stands for itself
+
+
 def factors(p: dict) -> list:
-    """The non-constant irreducible factors of p over Q, each once (constants dropped)."""
+    """The non-constant irreducible factors of p over Q, each once (constants dropped); above
+    degree 40, p itself (a sound answer wherever factors are used: one piece, not split)."""
+    if p and max(_degree(m) for m in p) > _FACTOR_DEGREE:
+        return [] if p_constant(p) is not None else [p]
     return [dict(f) for f, _ in _factor_cached(tuple(sorted(p.items())))]
 
 
@@ -237,6 +243,11 @@ class RationalFunction:
     @property
     def is_polynomial(self) -> bool:
         return self.den == {(): Fraction(1)}
+
+    @property
+    def degree(self) -> int:
+        """The largest total degree in the numerator and the denominator."""
+        return max(_degree(m) for m in list(self.num) + list(self.den))
 
     @property
     def names(self) -> set:

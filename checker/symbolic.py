@@ -228,6 +228,7 @@ class SymbolicNormaliser:
             f = self.normal(factor)
             if divide:
                 f = self._inverse(f, factor)
+            self.limits.require("lemma_degree", _degree_of(acc) + _degree_of(f), "this product")
             acc = mul(acc, f, self.limits.terms)
         return acc
 
@@ -254,6 +255,7 @@ class SymbolicNormaliser:
         base = self.normal(node.base)
         if e < 0:
             base, e = self._inverse(base, node.base), -e
+        self.limits.require("lemma_degree", e * _degree_of(base), f"the power {e} here")
         out = power(base, e, self.limits.terms)
         return out
 
@@ -357,6 +359,20 @@ class SymbolicNormaliser:
             raise DomainError(f"{name} of parameter expressions is not simplified by quasicert; "
                               "give its arguments numbers").at(node)
         return None
+
+
+def _degree_of(x: dict) -> int:
+    """The largest degree in the parameters among the coefficients and call arguments of x."""
+    top = 0
+    for m, c in x.items():
+        if isinstance(c, RationalFunction):
+            top = max(top, c.degree)
+        for atom, _ in m:
+            for a in atom[1]:
+                for v in (a if isinstance(a, tuple) else (a,)):
+                    if isinstance(v, RationalFunction):
+                        top = max(top, v.degree)
+    return top
 
 
 def _neg_or_none(v):

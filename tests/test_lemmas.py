@@ -2,7 +2,6 @@
 import os
 import re
 from fractions import Fraction
-from pathlib import Path
 
 import flint
 import pytest
@@ -453,3 +452,20 @@ def corruptions(text):
 def assume_any(options):
     from hypothesis import assume
     assume(options)
+
+
+# -- budgets -----------------------------------------------------------------------------------
+
+def test_lemma_degree_limit_refuses_huge_powers_at_once():
+    text = ("lemma f(k):\n  assume k >= 1\n  show (k + 1)^3000 = (k + 1)^3000\n"
+            "  chain (k + 1)^3000 = (k + 1)^3000 by arithmetic\nend\n")
+    report = check_text(text)
+    f = report.failures[0]
+    assert f.kind == "limit" and report.exit_code == 2
+    assert "the power 3000 here needs 3000, over the limit lemma-degree = 200" in f.message
+
+
+def test_lemma_degree_limit_counts_products():
+    product = "*".join(["(k + 1)"] * 250)
+    text = f"lemma f(k):\n  assume k >= 1\n  show {product} = 0\n  chain {product} = 0 by arithmetic\nend\n"
+    assert "over the limit lemma-degree = 200" in check_text(text).failures[0].message

@@ -434,27 +434,16 @@ class _Replay:
 
     def _step_failure(self, where, step, rules, verdict, values_ok, prev_nf, next_nf,
                       prev_value, next_value, positions) -> Failure:
-        cited = ", ".join(n if n != "claim" else (l if l.startswith("lemma ") else f"claim {l}")
-                          for n, l in rules)
+        cited = cited_rules(rules)
         pos = step.expr.pos
         line, column, end = pos.line, pos.column, pos.end_column if pos.end_line == pos.line else None
         details = []
         if not verdict.rule_ok:
             message = f"{where} does not follow by {cited}"
-            if verdict.problem:
-                details.append(verdict.problem)
-            for atom, reason in verdict.refusals[:4]:
-                from .normal import atom_text
-                target = f" to {atom_text(atom)}" if atom else ""
-                details.append(f"{cited} cannot be applied{target}: {reason}")
-            closest = _closest(verdict.candidates, next_nf)
-            if closest is not None:
-                details.append(f"{cited} gives: {_short(nf_text(closest))}")
-                wrong = [a for a in atoms(next_nf) - atoms(closest) if a in positions]
-                if wrong:
-                    p = positions[sorted(wrong, key=lambda a: (positions[a].line, positions[a].column))[0]]
-                    line, column = p.line, p.column
-                    end = p.end_column if p.end_line == p.line else None
+            more, closest, mark = rule_details(cited, verdict, next_nf, positions, nf_text)
+            details += more
+            if mark is not None:
+                line, column, end = mark
             if values_ok:
                 details.append(f"value check: passed (both lines are {_short(value_text(prev_value))})")
             else:
@@ -467,6 +456,30 @@ class _Replay:
                         f"difference (claimed - exact): {_short(value_text(next_value - prev_value))}"]
         return Failure(line, column, message, details, kind="failed", end_column=end,
                        claimed=next_value, exact=prev_value)
+
+
+def cited_rules(rules) -> str:
+    """The rules of a step as written: `reduce, claim q`, `lemma two_over_odd`."""
+    return ", ".join(n if n != "claim" else (l if l.startswith("lemma ") else f"claim {l}") for n, l in rules)
+
+
+def rule_details(cited: str, verdict, nxt, positions: dict, render):
+    """(detail lines, the closest line the rules give, the position of the first call of `nxt`
+    that they do not give or None) for a step whose rules do not give the next line."""
+    from .normal import atom_text
+    details = [verdict.problem] if verdict.problem else []
+    for atom, reason in verdict.refusals[:4]:
+        target = f" to {atom_text(atom)}" if atom else ""
+        details.append(f"{cited} cannot be applied{target}: {reason}")
+    closest = _closest(verdict.candidates, nxt)
+    mark = None
+    if closest is not None:
+        details.append(f"{cited} gives: {_short(render(closest))}")
+        wrong = [a for a in atoms(nxt) - atoms(closest) if a in positions]
+        if wrong:
+            p = positions[sorted(wrong, key=lambda a: (positions[a].line, positions[a].column))[0]]
+            mark = (p.line, p.column, p.end_column if p.end_line == p.line else None)
+    return details, closest, mark
 
 
 def _products(node) -> list:

@@ -32,10 +32,15 @@ from .rational_functions import RationalFunction
 from .report import Failure
 from .rules import RULES, WHOLE_LINE_RULES
 from .normal import sub
-from .symbolic import SymbolicNormaliser, atom_label, is_symbolic, line_text, value_label
+from .symbolic import SymbolicNormaliser, is_symbolic, line_text, value_label
 from .symbolic_rules import rewrite as symbolic_rewrite
 
 __all__ = ["LemmaInfo", "LemmaCheck", "instantiate", "Scope", "lemma_facts"]
+
+
+def _short(s: str) -> str:
+    from .checking import _short as short
+    return short(s)
 
 _SHOWN_INSTANCES = 3
 
@@ -126,15 +131,6 @@ def instantiate(evaluator, info: LemmaInfo, ref: st.RuleRef, facts: Assumptions,
         return inst.normal(info.lhs), inst.normal(info.rhs)
     except CertificateError as e:
         raise RuleRefused(f"lemma {info.name} at {shown}: {e.message}", ref.pos.line, ref.pos.column) from None
-
-
-def _closest(candidates, target):
-    best, score = None, None
-    for c in candidates:
-        s = len(set(c.items()) ^ set(target.items()))
-        if score is None or s < score:
-            best, score = c, s
-    return best
 
 
 class LemmaCheck:
@@ -268,27 +264,17 @@ class LemmaCheck:
         return self.evaluator.call(name, args)
 
     def _step_failure(self, where, step, rules, verdict, prev, nxt, positions, case) -> Failure:
-        cited = ", ".join(n if n != "claim" else (l if l.startswith("lemma ") else f"claim {l}")
-                          for n, l in rules)
+        from .checking import cited_rules, rule_details
+        cited = cited_rules(rules)
         pos = step.expr.pos
         line, column = pos.line, pos.column
         end = pos.end_column if pos.end_line == pos.line else None
-        details = []
-        if verdict.problem:
-            details.append(verdict.problem)
-        for atom, reason in verdict.refusals[:4]:
-            target = f" to {atom_label(atom)}" if atom else ""
-            details.append(f"{cited} cannot be applied{target}: {reason}")
-        closest = _closest(verdict.candidates, nxt)
+        details, closest, mark = rule_details(cited, verdict, nxt, positions, line_text)
+        if mark is not None:
+            line, column, end = mark
         if closest is not None:
-            details.append(f"{cited} gives: {_short(line_text(closest))}")
             details.append(f"this line is: {_short(line_text(nxt))}")
-            wrong = [a for a in set(_atoms(nxt)) - set(_atoms(closest)) if a in positions]
-            if wrong:
-                p = positions[sorted(wrong, key=lambda a: (positions[a].line, positions[a].column))[0]]
-                line, column = p.line, p.column
-                end = p.end_column if p.end_line == p.line else None
-            elif not set(_atoms(nxt)) ^ set(_atoms(closest)):
+            if not set(_atoms(nxt)) ^ set(_atoms(closest)):
                 details.append(f"difference (this line - what the rule gives): "
                                f"{_short(line_text(sub(nxt, closest)))}, not 0")
         details += self._numeric_step(step, case)
@@ -496,7 +482,3 @@ def _instance_summary(found: list, params: tuple) -> str:
 def _magnitude(v: Fraction) -> str:
     n = abs(v.numerator)
     return value_text(v) if n < 10**9 else f"about {'-' if v < 0 else ''}10^{len(str(n)) - 1}"
-
-
-def _short(s: str, width: int = 300) -> str:
-    return s if len(s) <= width else s[: width // 2] + f" ...({len(s) - width} characters)... " + s[-width // 2:]

@@ -46,14 +46,9 @@ def _mono_mul(a: tuple, b: tuple) -> tuple:
 
 
 def p_add(p: dict, q: dict, sign: int = 1) -> dict:
-    out = dict(p)
-    for m, c in q.items():
-        v = out.get(m, _ZERO) + sign * c
-        if v:
-            out[m] = v
-        else:
-            out.pop(m, None)
-    return out
+    """p + q (p - q with sign -1): the sum of normal forms, which polynomials are too."""
+    from .normal import add, sub
+    return add(p, q) if sign > 0 else sub(p, q)
 
 
 def p_mul(p: dict, q: dict) -> dict:

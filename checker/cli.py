@@ -101,6 +101,12 @@ def _cmd_rules(out) -> int:
     for name, (statement, conditions, source) in WHOLE_LINE_RULES.items():
         head = "claim LABEL" if name == "claim" else name
         print(f"{head}\n    {statement}\n    needs: {conditions}", file=out)
+    print("lemma NAME(E1, ...)\n    previous line - next line = c * (lhs - rhs) of the lemma at the values E1, ...\n"
+          "    needs: the lemma was proved above or came by `use`; its assumptions hold for the values",
+          file=out)
+    print("\nIn lemmas every rule also takes parameters: its side conditions are derived from the "
+          "lemma's assumptions\n(gcd, signs, residues, divisibility) and refused, naming the condition, "
+          "when they cannot be.", file=out)
     return EXIT_OK
 
 

@@ -149,8 +149,8 @@ def atom_problem(facts, atom) -> str:
         return _first(facts.integral(h), facts.integral(k), facts.at_least(k, 1))
     if name == "generalized_dedekind":
         p, h, k = args
-        if is_symbolic(p):
-            return "the order p of generalized_dedekind must be a number"
+        if is_symbolic(p) or p.denominator != 1 or p < 1:
+            return "the order p of generalized_dedekind must be a whole number >= 1"
         return _first(facts.integral(h), facts.integral(k), facts.at_least(k, 1))
     if name in ("sawtooth",):
         return ""
@@ -292,6 +292,8 @@ class SymbolicNormaliser:
             if node.name == "sawtooth" and len(args) == 1 and not isinstance(args[0], tuple) \
                     and args[0].denominator == 1:
                 return {}
+            # defined? (the value is memoised; a bad call is the user's error, found here)
+            self.evaluator.call(node.name, args, node)
             atom = (node.name, args)
             self.positions.setdefault(atom, node.pos)
             return atom_nf(atom)

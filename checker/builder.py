@@ -68,6 +68,33 @@ class Certificate:
         self._count += 1
         return self
 
+    def use(self, name: str) -> "Certificate":
+        """The lemmas of a bundled certificate, e.g. use("dedekind-lemmas")."""
+        self._lines.append(f"use {_quote(name)}")
+        return self
+
+    def lemma(self, name: str, params, assumptions, lhs: str, rhs: str, steps) -> "Certificate":
+        """A lemma proved by one chain from lhs: steps are (expression, rule or rules) pairs.
+
+        >>> c = Certificate().lemma("one_over_k", ["k"], ["k >= 1"], "dedekind(1, k)",
+        ...     "(k - 1)*(k - 2)/(12*k)", [("(2/k + k)/12 - 1/4 - dedekind(k, 1)", "reciprocity"),
+        ...     ("(2/k + k)/12 - 1/4 - dedekind(0, 1)", "reduce"), ("(k - 1)*(k - 2)/(12*k)", "value")])
+        >>> c.check().ok
+        True
+        """
+        lines = [f"lemma {name}({', '.join(params)}):"]
+        if assumptions:
+            lines.append("  assume " + ", ".join(assumptions))
+        lines.append(f"  show {lhs} = {rhs}")
+        lines.append(f"  chain {lhs}")
+        for expression, rules in steps:
+            cited = rules if isinstance(rules, str) else ", ".join(rules)
+            lines.append(f"    = {expression} by {cited}")
+        lines.append("end")
+        self._lines.extend(lines)
+        self._count += 1
+        return self
+
     def text(self) -> str:
         return "\n".join(self._lines) + "\n"
 

@@ -13,7 +13,7 @@ from . import statements as st
 from .checking import check_file
 from .report import render_failure
 
-_CHECKED = (st.Claim, st.Congruence, st.Chain, st.Identity, st.Witness)
+_CHECKED = (st.Claim, st.Congruence, st.Chain, st.Identity, st.Witness, st.Lemma, st.Use)
 
 
 def pytest_addoption(parser):
@@ -46,7 +46,7 @@ class CertificateFile(pytest.File):
         for s in cert.statements:
             if isinstance(s, _CHECKED):
                 kind = type(s).__name__.lower()
-                label = getattr(s, "label", None)
+                label = s.name if isinstance(s, st.Lemma) else s.target if isinstance(s, st.Use) else s.label
                 name = f"line {s.pos.line} {kind}" + (f" {label}" if label else "")
                 yield StatementItem.from_parent(self, name=name, first=s.pos.line, last=s.pos.end_line)
 

@@ -103,6 +103,16 @@ def test_pytest_plugin_collects_certificates(pytester):
     result.stdout.fnmatch_lines(["*right side: 1/16   (claimed)*"])
 
 
+def test_pytest_plugin_collects_lemmas_and_uses(pytester):
+    pytester.makefile(".qcert", lemmas='use "dedekind-lemmas"\n'
+                      "lemma wrong(k):\n  assume k >= 1\n  show dedekind(k, 3) = dedekind(1, 3)\n"
+                      "  chain dedekind(k, 3) = dedekind(1, 3) by reduce\nend\n")
+    result = pytester.runpytest(*_plugin_args(), "--qcert", "-v")
+    result.assert_outcomes(passed=1, failed=1)
+    result.stdout.fnmatch_lines(["*line 1 use dedekind-lemmas PASSED*", "*line 2 lemma wrong FAILED*"])
+    result.stdout.fnmatch_lines(["*the assumptions do not give k - 1 = 0 (mod 3)*"])
+
+
 def test_pytest_plugin_is_opt_in(pytester):
     pytester.makefile(".qcert", bad="claim 1 = 2\n")
     result = pytester.runpytest(*_plugin_args())

@@ -1,0 +1,71 @@
+"""Lemma speed: the bundled lemma library, its symbolic part and its numeric second opinion.
+
+Run on demand:  python tests/benchmarks/bench_lemmas.py
+The reference, timed in the same run, is python-flint evaluating the closed form
+s(2, k) = (k-1)(k-5)/(24k) at the same 150 instances as the second opinion uses
+(the cost of checking a lemma on instances with the fastest library at hand).
+"""
+from __future__ import annotations
+
+import os
+import sys
+import time
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
+
+import flint  # noqa: E402
+
+from checker import check_file, check_text  # noqa: E402
+from checker import instances  # noqa: E402
+from checker.evaluation import Evaluator  # noqa: E402
+from checker.parsing import parse_certificate, resource_dir  # noqa: E402
+
+LIBRARY = resource_dir("checker.certificates", "certificates") / "dedekind-lemmas.qcert"
+
+TWO = """lemma two_over_odd(k):
+  assume k >= 1, k == 1 mod 2
+  show dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
+  chain dedekind(2, k)
+    = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(k, 2)   by reciprocity
+    = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(1, 2)   by reduce
+    = (k - 1)*(k - 5)/(24*k)                            by value
+end
+"""
+
+
+def timed(fn, repeat=5):
+    best = None
+    for _ in range(repeat):
+        t = time.perf_counter()
+        out = fn()
+        dt = time.perf_counter() - t
+        best = dt if best is None or dt < best else best
+    return best, out
+
+
+def main():
+    check_text("claim 1 = 1\n")          # build the parser, import sympy
+    whole, report = timed(lambda: check_file(LIBRARY), 3)
+    assert report.ok
+    print(f"library: {len([n for n in report.notes if 'lemma' in n])} lemmas, {report.checked} steps, "
+          f"{whole:.2f} s")
+
+    lemma = parse_certificate(TWO).statements[0]
+    sampler = instances.Sampler(Evaluator(), lemma.params, lemma.conditions)
+    found = sampler.small() + sampler.large()
+    ks = [int(e["k"]) for e in found]
+
+    one, _ = timed(lambda: check_text(TWO))
+    # the same lemma for k = 1 only: the symbolic replay with a second opinion at one instance
+    symbolic, _ = timed(lambda: check_text(TWO.replace("k >= 1", "k >= 1, k <= 1")))
+    reference, _ = timed(lambda: [(flint.fmpq.dedekind_sum(2, k), flint.fmpq(k - 1) * (k - 5) / (24 * k))
+                                  for k in ks])
+    print(f"two_over_odd: whole check {one * 1000:.1f} ms; symbolic replay about {symbolic * 1000:.1f} ms; "
+          f"second opinion about {(one - symbolic) * 1000:.1f} ms at {len(ks)} instances")
+    print(f"python-flint, the statement alone at the same {len(ks)} instances: {reference * 1000:.2f} ms; "
+          f"ratio of the second opinion (every line of the proof, exact) to it: "
+          f"{(one - symbolic) / reference:.1f}x")
+
+
+if __name__ == "__main__":
+    main()

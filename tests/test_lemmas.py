@@ -462,3 +462,58 @@ def test_lemma_degree_limit_counts_products():
     product = "*".join(["(k + 1)"] * 250)
     text = f"lemma f(k):\n  assume k >= 1\n  show {product} = 0\n  chain {product} = 0 by arithmetic\nend\n"
     assert "over the limit lemma-degree = 200" in check_text(text).failures[0].message
+
+
+# -- the derivations the manuscript-style proofs lean on -------------------------------------------
+
+def test_gcd_of_neighbours_is_derived_for_reciprocity():
+    # gcd(k - 1, k) = 1 always (one Euclid step); k - 1 >= 1 from k >= 2
+    text = """lemma neighbours(k):
+  assume k >= 2
+  show dedekind(k - 1, k) + dedekind(k, k - 1) = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4
+  chain dedekind(k - 1, k) + dedekind(k, k - 1)
+    = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4 - dedekind(k, k - 1) + dedekind(k, k - 1)  by reciprocity
+    = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4                                           by arithmetic
+end
+"""
+    assert check_text(text).ok
+    f = failure(text.replace("assume k >= 2", "assume k >= 1"))
+    assert "dedekind(k, k - 1) is not defined for every allowed value: the assumptions do not give " \
+           "k - 1 >= 1" in f.message
+
+
+def test_residue_of_k_plus_one_modulo_k():
+    # (k + 1) mod k = 1 for k >= 2, and not for k = 1
+    text = "lemma m(k):\n  assume k >= 2\n  show mod(k + 1, k) = 1\n  chain mod(k + 1, k) = 1 by arithmetic\nend\n"
+    assert check_text(text).ok
+    assert "mod(k + 1, k) is not fixed by the assumptions" in failure(text.replace("k >= 2", "k >= 1")).message
+
+
+def test_inverse_from_an_assumed_congruence():
+    # s(h', k) = s(h, k) from h h' = 1 (mod k); without it the rule is refused
+    text = """lemma inv(h, g, k):
+  assume k >= 1, h*g == 1 mod k
+  show dedekind(g, k) = dedekind(h, k)
+  chain dedekind(g, k) = dedekind(h, k) by inverse
+end
+"""
+    assert check_text(text).ok
+    f = failure(text.replace(", h*g == 1 mod k", ", gcd(h, k) = 1"))
+    assert any("the assumptions do not give g*h - 1 = 0 (mod k)" in d for d in f.details)
+
+
+def test_every_one_symbol_corruption_of_the_standalone_lemmas():
+    """All of them, not a sample: each is refused, except the two that say the same thing
+    (s(1, 1) = s(0, 1) = 0, and 3 - 2 mod(k, 3) = +-1 makes * and / agree)."""
+    accepted = []
+    for text in STANDALONE:
+        for mutant, original, changed in corruptions(text):
+            report = check_text(mutant)
+            if report.ok:
+                accepted.append((original, changed))
+            else:
+                assert report.exit_code in (1, 2) and report.failures[0].kind != "checker bug"
+    assert accepted == [
+        ("(1/k + k + 1/k)/12 - 1/4 - dedekind(0, 1)", "(1/k + k + 1/k)/12 - 1/4 - dedekind(1, 1)"),
+        ("(k^2 - 9*k + 10 - 2*k*(3 - 2*mod(k, 3)))/(36*k)", "(k^2 - 9*k + 10 - 2*k/(3 - 2*mod(k, 3)))/(36*k)"),
+    ]

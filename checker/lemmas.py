@@ -156,11 +156,11 @@ class LemmaCheck:
         final = stmt.split is None
         proofs = []
         for i, chain in enumerate(stmt.chains):
-            result = self._chain(chain, facts, scope, "")
+            result = self._chain(chain, facts, scope, None)
             if result is None:
                 return None
             if final and i == len(stmt.chains) - 1:
-                proofs.append((chain, result, facts, ""))
+                proofs.append((chain, result, facts, None))
         if stmt.split is None:
             if not stmt.chains:
                 raise CertificateError("a lemma needs a proof: chains, or cases").at(stmt)
@@ -203,14 +203,15 @@ class LemmaCheck:
                                        "statement and assumptions may use only its parameters").at(node)
 
     # -- chains -----------------------------------------------------------------
-    def _chain(self, chain: st.Chain, facts, scope: Scope, case: str):
+    def _chain(self, chain: st.Chain, facts, scope: Scope, case):
         if chain.label and chain.label in scope.local:
             raise CertificateError(f"the label '{chain.label}' is already used in this lemma").at(chain)
         norm = SymbolicNormaliser(self.evaluator, facts, self.env)
         start = prev = norm.normal(chain.start)
         for index, step in enumerate(chain.steps, 1):
             self.replay._on_time(step)
-            where = (f"lemma {self.stmt.name}{case}, step {index} of the chain at line {chain.pos.line}")
+            where = (f"lemma {self.stmt.name}{_case_words(case)}, step {index} of the chain at line "
+                     f"{chain.pos.line}")
             norm.positions = {}
             nxt = norm.normal(step.expr)
             rules, extra = self._rules(step, where, facts)
@@ -326,7 +327,7 @@ class LemmaCheck:
         which = "start at the left side" if problem == "start" else "end at the right side"
         p = node.pos
         self.replay._fail(Failure(
-            p.line, p.column, f"lemma {self.stmt.name}{case}: the last chain must {which} of `show`",
+            p.line, p.column, f"lemma {self.stmt.name}{_case_words(case)}: the last chain must {which} of `show`",
             [f"the chain {'starts' if problem == 'start' else 'ends'} at: {_short(line_text(have))}",
              f"`show` has:        {_short(line_text(want))}"], kind="failed",
             end_column=p.end_column if p.end_line == p.line else None))
@@ -366,33 +367,24 @@ class LemmaCheck:
         proofs = []
         for case, r in zip(split.cases, residues):
             case_facts = facts.with_class(split.var, r, m)
-            label = f" (case {split.var} = {r} mod {m})"
             local = Scope(scope.outer, scope.local)
             result = None
             for chain in case.chains:
-                result = self._chain(chain, case_facts, local, label)
+                result = self._chain(chain, case_facts, local, (split.var, r, m))
                 if result is None:
                     return None
-            proofs.append((case.chains[-1], result, case_facts, label))
+            proofs.append((case.chains[-1], result, case_facts, (split.var, r, m)))
         return proofs
 
     # -- the numeric second opinion -------------------------------------------------
-    def instances(self, case: str = "") -> list:
+    def instances(self, case=None) -> list:
+        """The instances of the lemma, or those of one case (var, r, m)."""
         if self._instances is None:
             self._instances = self.sampler.small() + self.sampler.large()
-        if not case:
+        if case is None:
             return self._instances
-        var, r, m = self._case_class(case)
+        var, r, m = case
         return [e for e in self._instances if (e[var] - r) % m == 0]
-
-    def _case_class(self, case):
-        split = self.stmt.split
-        for c in split.cases:
-            r = self.evaluator.number(c.residue).numerator
-            m = self.evaluator.number(split.modulus).numerator
-            if f" (case {split.var} = {r % m} mod {m})" == case:
-                return split.var, r % m, m
-        raise ValueError(case)
 
     def _second_opinion(self) -> bool:
         stmt = self.stmt
@@ -445,6 +437,10 @@ class LemmaCheck:
                                              "quasicert: please report it with this certificate"],
                                   kind="checker bug", exit_code=3))
         return False
+
+
+def _case_words(case) -> str:
+    return "" if case is None else f" (case {case[0]} = {case[1]} mod {case[2]})"
 
 
 def _multiplier_problem(facts, c) -> str:

@@ -25,6 +25,7 @@ from __future__ import annotations
 from fractions import Fraction
 from functools import lru_cache
 from math import gcd as _gcd
+from typing import Union
 
 __all__ = ["RationalFunction", "Value", "poly_text", "names_of", "is_integer_polynomial",
            "poly_eval", "value_at", "substitute_value", "as_polynomial"]
@@ -339,7 +340,7 @@ class RationalFunction:
         return RationalFunction(num, den) if e else Fraction(1)
 
 
-Value = "Fraction | RationalFunction"
+Value = Union[Fraction, RationalFunction]     # what a parameter expression evaluates to
 
 
 def _parts(x):

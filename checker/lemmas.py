@@ -23,7 +23,7 @@ from fractions import Fraction
 from . import expressions as ex
 from . import statements as st
 from .assumptions import Assumptions
-from .errors import CertificateError, DomainError, RuleRefused
+from .errors import BudgetExceeded, CertificateError, DomainError, RuleRefused
 from .functions import REGISTRY
 from .instances import Sampler, names_in
 from .kernel import check_step, conclusion_problem, known_rule, uncovered_residues
@@ -293,6 +293,8 @@ class LemmaCheck:
             try:
                 a = self.sampler._value(prev_node, env)
                 b = self.sampler._value(step.expr, env)
+            except BudgetExceeded:
+                continue
             except CertificateError as e:
                 return [f"numerically: at {_env_text(env)} a line cannot be evaluated: {e.message}"]
             if a != b:
@@ -402,28 +404,51 @@ class LemmaCheck:
             for case in stmt.split.cases:
                 r = self.evaluator.number(case.residue).numerator % m
                 checks += [((stmt.split.var, r, m), chain, case) for chain in case.chains]
+        used = []
         for env in found:
             self.replay._on_time(stmt)
-            bad = self._disagreement(env, stmt.lhs, stmt.rhs)
+            try:
+                bad = self._instance_problem(env, checks)
+            except BudgetExceeded:
+                continue                 # too costly at this instance: not evidence either way
             if bad:
-                return self._bug(stmt.rhs, f"lemma {stmt.name} passed its symbolic check but its two "
-                                 f"sides differ at {_env_text(env)}", bad)
-            for cls, chain, _case in checks:
-                if cls and (env[cls[0]] - cls[1]) % cls[2]:
-                    continue
-                lines = [chain.start] + [s.expr for s in chain.steps]
-                for a, b in zip(lines, lines[1:]):
-                    bad = self._disagreement(env, a, b)
-                    if bad:
-                        return self._bug(b, f"lemma {stmt.name}: a step passed its symbolic check but "
-                                         f"is false at {_env_text(env)}", bad)
-        self.count = len(found)
-        self.summary = _instance_summary(found, stmt.params)
+                return self._bug(*bad)
+            used.append(env)
+        if not used:
+            p = stmt.pos
+            self.replay._fail(Failure(p.line, p.column, f"lemma {stmt.name}: none of the {len(found)} "
+                                      "instances found can be evaluated within the limits, so there is no "
+                                      "second opinion", kind="limit", exit_code=2))
+            return False
+        self.count = len(used)
+        self.summary = _instance_summary(used, stmt.params)
+        if len(used) < len(found):
+            self.summary += f"; {len(found) - len(used)} more over the limits, skipped"
         return True
+
+    def _instance_problem(self, env, checks):
+        """(node, message, details) for the first disagreement at `env`, or None."""
+        stmt = self.stmt
+        bad = self._disagreement(env, stmt.lhs, stmt.rhs)
+        if bad:
+            return (stmt.rhs, f"lemma {stmt.name} passed its symbolic check but its two sides differ "
+                    f"at {_env_text(env)}", bad)
+        for cls, chain, _case in checks:
+            if cls and (env[cls[0]] - cls[1]) % cls[2]:
+                continue
+            lines = [chain.start] + [s.expr for s in chain.steps]
+            for a, b in zip(lines, lines[1:]):
+                bad = self._disagreement(env, a, b)
+                if bad:
+                    return (b, f"lemma {stmt.name}: a step passed its symbolic check but is false at "
+                            f"{_env_text(env)}", bad)
+        return None
 
     def _disagreement(self, env, a, b) -> list:
         try:
             va, vb = self.sampler._value(a, env), self.sampler._value(b, env)
+        except BudgetExceeded:
+            raise
         except CertificateError as e:
             return [f"a line cannot be evaluated there: {e.message}"]
         if va == vb:

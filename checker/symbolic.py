@@ -58,10 +58,10 @@ def line_text(x: dict) -> str:
         body = "*".join(atom_label(a) + (f"^{e}" if e != 1 else "")
                         for a, e in sorted(m, key=lambda ae: atom_label(ae[0])))
         if isinstance(c, RationalFunction):
-            coef = str(c)
-            if len(c.num) > 1 and body:
+            sign, coef = ("-", str(-c)) if str(c).startswith("-") else ("+", str(c))
+            if len(c.num) > 1 and body and not coef.startswith("("):
                 coef = f"({coef})"
-            parts.append(("+", coef + ("*" + body if body else "")))
+            parts.append((sign, coef + ("*" + body if body else "")))
             continue
         mag = abs(c)
         term = value_text(mag) if not body else body if mag == 1 else f"{value_text(mag)}*{body}"

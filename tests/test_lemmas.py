@@ -68,13 +68,31 @@ def test_derived_forms_of_the_library_against_flint():
             assert s((k + 2) // 3, k) == Fraction(k * k - 18 * k + 13, 72 * k) + Fraction(1, 18), k
 
 
+def test_apostol_s3_one_k_against_sympy_bernoulli_polynomials():
+    # the library's s_3(1, k) = -(k^2-1)(k^2-4)/(120 k^3), against Apostol's definition
+    # sum_{j mod k} (j/k) B_3({j/k}) summed with sympy's exact Bernoulli polynomial B_3
+    import sympy
+    x = sympy.Symbol("x")
+    coefficients = [Fraction(int(c.p), int(c.q)) for c in sympy.Poly(sympy.bernoulli(3, x), x).all_coeffs()]
+
+    def b3(t):
+        value = Fraction(0)
+        for c in coefficients:
+            value = value * t + c
+        return value
+
+    for k in range(1, 121):
+        total = sum(Fraction(j, k) * b3(Fraction(j, k)) for j in range(k))
+        assert total == -Fraction((k * k - 1) * (k * k - 4), 120 * k ** 3), k
+
+
 # -- the library is proved, and usable -------------------------------------------------------
 
 def test_library_is_proved_symbolically_with_a_second_opinion():
     report = check_file(LIBRARY)
     assert report.ok, report.failures
     notes = [n for n in report.notes if "lemma" in n]
-    assert len(notes) == 11
+    assert len(notes) == 12
     assert all("replayed symbolically" in n and "instances" in n for n in notes)
     assert any("in 2 cases" in n for n in notes)
 
@@ -503,8 +521,8 @@ end
 
 
 def test_every_one_symbol_corruption_of_the_standalone_lemmas():
-    """All of them, not a sample: each is refused, except the two that say the same thing
-    (s(1, 1) = s(0, 1) = 0, and 3 - 2 mod(k, 3) = +-1 makes * and / agree)."""
+    """All of them, not a sample: each is refused, except the three that say the same thing
+    (s(1, 1) = s(0, 1) = 0, the same for s_3, and 3 - 2 mod(k, 3) = +-1 makes * and / agree)."""
     accepted = []
     for text in STANDALONE:
         for mutant, original, changed in corruptions(text):
@@ -516,4 +534,6 @@ def test_every_one_symbol_corruption_of_the_standalone_lemmas():
     assert accepted == [
         ("(1/k + k + 1/k)/12 - 1/4 - dedekind(0, 1)", "(1/k + k + 1/k)/12 - 1/4 - dedekind(1, 1)"),
         ("(k^2 - 9*k + 10 - 2*k*(3 - 2*mod(k, 3)))/(36*k)", "(k^2 - 9*k + 10 - 2*k/(3 - 2*mod(k, 3)))/(36*k)"),
+        ("-(k^2 - 1)*(k^2 - 4)/(120*k^3) - generalized_dedekind(3, 0, 1)/k^2",
+         "-(k^2 - 1)*(k^2 - 4)/(120*k^3) - generalized_dedekind(3, 1, 1)/k^2"),
     ]

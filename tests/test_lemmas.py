@@ -537,3 +537,29 @@ def test_every_one_symbol_corruption_of_the_standalone_lemmas():
         ("-(k^2 - 1)*(k^2 - 4)/(120*k^3) - generalized_dedekind(3, 0, 1)/k^2",
          "-(k^2 - 1)*(k^2 - 4)/(120*k^3) - generalized_dedekind(3, 1, 1)/k^2"),
     ]
+
+
+def test_use_refuses_chains_deeper_than_sixteen(tmp_path):
+    for i in range(20):
+        (tmp_path / f"f{i}.qcert").write_text(f'use "f{i + 1}.qcert"\n')
+    (tmp_path / "f20.qcert").write_text("claim 1 = 1\n")
+    f = check_file(tmp_path / "f0.qcert").failures[0]
+    assert "use is nested more than 16 certificates deep" in f.message
+
+
+def test_use_of_a_folder_or_binary_file_is_a_plain_refusal(tmp_path):
+    (tmp_path / "dir.qcert").mkdir()
+    (tmp_path / "bin.qcert").write_bytes(b"\xff\xfe\x00")
+    (tmp_path / "main.qcert").write_text('use "dir.qcert"\n')
+    assert "dir.qcert does not check" in check_file(tmp_path / "main.qcert").failures[0].message
+    (tmp_path / "main.qcert").write_text('use "bin.qcert"\n')
+    assert "not UTF-8" in check_file(tmp_path / "main.qcert").failures[0].message
+
+
+def test_latex_marks_a_failing_lemma_step():
+    from checker.latex import certificate_latex
+    doc = certificate_latex(TWO_ODD.replace("(k - 1)*(k - 5)/(24*k)                            by value",
+                                            "(k - 1)*(k - 7)/(24*k) by value"))
+    assert r"\paragraph{Lemma (two\_odd).}" in doc
+    marked = [ln for ln in doc.splitlines() if r"\fbox" in ln]
+    assert len(marked) == 1 and "by value" not in marked[0] and r"\text{(value)}" in marked[0]

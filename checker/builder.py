@@ -84,8 +84,8 @@ class Certificate:
         """
         lines = [f"lemma {name}({', '.join(params)}):"]
         if assumptions:
-            lines.append("  assume " + ", ".join(assumptions))
-        lines.append(f"  show {lhs} = {rhs}")
+            lines.append("  given " + ", ".join(assumptions))
+        lines.append(f"  then {lhs} = {rhs}")
         lines.append(f"  chain {lhs}")
         for expression, rules in steps:
             cited = rules if isinstance(rules, str) else ", ".join(rules)

@@ -349,7 +349,7 @@ class _Replay:
         self.lemmas[stmt.name] = info
         self.report.checked += check.steps + 1
         v = ", ".join(stmt.params)
-        cases = f" in {len(stmt.split.cases)} cases" if stmt.split else ""
+        cases = f" in {len(stmt.split.cases)} residue classes" if stmt.split else ""
         self.report.notes.append(
             f"line {stmt.pos.line}: lemma {stmt.name} holds for all integers {v} satisfying its "
             f"assumptions: {check.steps} step{'s' if check.steps != 1 else ''} replayed symbolically{cases}; numeric second opinion "

@@ -197,7 +197,7 @@ def _lemma_latex(s: st.Lemma, failed_lines, statement_fails: bool) -> list:
         out.extend(_chain_latex(chain, failed_lines))
     if s.split:
         for case in s.split.cases:
-            out.append(r"\noindent Case $" + _name(s.split.var) + r" \equiv " + expression_latex(case.residue)
+            out.append(r"\noindent Where $" + _name(s.split.var) + r" \equiv " + expression_latex(case.residue)
                        + r" \pmod{" + expression_latex(s.split.modulus) + "}$:")
             for chain in case.chains:
                 out.extend(_chain_latex(chain, failed_lines))

@@ -3,9 +3,9 @@
 A lemma is accepted when
 1. every step of its chains follows by the cited rules, with the rules' side
    conditions derived from the assumptions (``kernel.check_step`` with
-   ``symbolic_rules`` and ``assumptions``), and the last chain (of each case)
-   goes from the left side to the right side of `show`;
-2. a case split covers every residue class the assumptions allow
+   ``symbolic_rules`` and ``assumptions``), and the last chain (of each residue
+   class) goes from the left side to the right side of `then`;
+2. a split covers every residue class the assumptions allow
    (``kernel.uncovered_residues``);
 3. a numeric second opinion agrees: the statement and every line of every
    chain, evaluated exactly by the kernel at many instances (``instances``).
@@ -163,7 +163,7 @@ class LemmaCheck:
                 proofs.append((chain, result, facts, None))
         if stmt.split is None:
             if not stmt.chains:
-                raise CertificateError("a lemma needs a proof: chains, or cases").at(stmt)
+                raise CertificateError("a lemma needs a proof: chains, or a split into residue classes").at(stmt)
         else:
             proofs = self._cases(stmt.split, facts, scope)
             if proofs is None:
@@ -329,42 +329,42 @@ class LemmaCheck:
         which = "start at the left side" if problem == "start" else "end at the right side"
         p = node.pos
         self.replay._fail(Failure(
-            p.line, p.column, f"lemma {self.stmt.name}{_case_words(case)}: the last chain must {which} of `show`",
+            p.line, p.column, f"lemma {self.stmt.name}{_case_words(case)}: the last chain must {which} of `then`",
             [f"the chain {'starts' if problem == 'start' else 'ends'} at: {_short(line_text(have))}",
-             f"`show` has:        {_short(line_text(want))}"], kind="failed",
+             f"`then` has:        {_short(line_text(want))}"], kind="failed",
             end_column=p.end_column if p.end_line == p.line else None))
         return False
 
     def _cases(self, split: st.Split, facts, scope):
         stmt = self.stmt
         if split.var not in stmt.params:
-            raise CertificateError(f"cases split on a parameter of lemma {stmt.name}, not on "
+            raise CertificateError(f"split on a parameter of lemma {stmt.name}, not on "
                                    f"'{split.var}'").at(split)
         m = self.evaluator.number(split.modulus)
         if m.denominator != 1 or m < 2:
-            raise CertificateError("cases need a whole modulus >= 2").at(split.modulus)
+            raise CertificateError("a split needs a whole modulus >= 2").at(split.modulus)
         m = m.numerator
         if m > 10_000:
-            raise CertificateError(f"cases modulo {m} are too many to check here (at most 10000)").at(split.modulus)
+            raise CertificateError(f"a split modulo {m} has too many classes to check here (at most 10000)").at(split.modulus)
         residues = []
         for case in split.cases:
             r = self.evaluator.number(case.residue)
             if r.denominator != 1:
-                raise CertificateError("a case is a whole residue").at(case.residue)
+                raise CertificateError("a residue is a whole number").at(case.residue)
             r = r.numerator % m
             if r in residues:
-                raise CertificateError(f"the case {split.var} = {r} (mod {m}) is given twice").at(case)
+                raise CertificateError(f"the residue {split.var} = {r} (mod {m}) is given twice").at(case)
             if r not in facts.possible_residues(split.var, m):
-                raise CertificateError(f"the case {split.var} = {r} (mod {m}) cannot happen under the "
+                raise CertificateError(f"the residue {split.var} = {r} (mod {m}) cannot happen under the "
                                        "assumptions; leave it out").at(case)
             residues.append(r)
         missing = uncovered_residues(facts, split.var, m, residues)
         if missing:
             shown = ", ".join(str(r) for r in missing[:10])
             p = split.pos
-            self.replay._fail(Failure(p.line, p.column, f"lemma {stmt.name}: the cases do not cover "
+            self.replay._fail(Failure(p.line, p.column, f"lemma {stmt.name}: the residues given do not cover "
                                       f"{split.var} = {shown} (mod {m}), which the assumptions allow",
-                                      [f"cases given: {', '.join(map(str, residues))}"], kind="failed"))
+                                      [f"residues given: {', '.join(map(str, residues))}"], kind="failed"))
             return None
         proofs = []
         for case, r in zip(split.cases, residues):
@@ -465,7 +465,7 @@ class LemmaCheck:
 
 
 def _case_words(case) -> str:
-    return "" if case is None else f" (case {case[0]} = {case[1]} mod {case[2]})"
+    return "" if case is None else f" (where {case[0]} = {case[1]} mod {case[2]})"
 
 
 def _multiplier_problem(facts, c) -> str:

@@ -259,9 +259,9 @@ class _Build(Transformer):
         params = children[3]
         body = children[6:]
         conditions = tuple(c for a in body if isinstance(a, list) for c in a)
-        show = next(i for i, c in enumerate(body) if isinstance(c, Token) and c == "show")
-        lhs, rhs = body[show + 1], body[show + 3]
-        chains = tuple(c for c in body[show + 4:] if isinstance(c, st.Chain))
+        then = next(i for i, c in enumerate(body) if isinstance(c, Token) and c == "then")
+        lhs, rhs = body[then + 1], body[then + 3]
+        chains = tuple(c for c in body[then + 4:] if isinstance(c, st.Chain))
         split = next((c for c in body if isinstance(c, st.Split)), None)
         return st.Lemma(name, params, conditions, lhs, rhs, chains, split, _span(children))
 
@@ -388,7 +388,7 @@ _LANGUAGE_CHARACTERS = set("+-*/^()[],.=<>!:#\"_'\u2212\u00b7\u00d7\u2264\u2265\
 _NOT_IN_EXPRESSIONS = {"EQUALS", "LESS_EQUAL", "GREATER_EQUAL", "NOT_EQUAL", "LESS", "GREATER",
                        "CONGRUENT", "BY", "MOD", "TITLE", "SOURCE", "LET", "CLAIM", "CHAIN", "COLON",
                        "IDENTITY", "WITNESS", "FOR", "ALL", "PERIOD", "DEGREE", "LEMMA", "USE",
-                       "SHOW", "ASSUME", "CASES", "CASE", "END"}
+                       "THEN", "GIVEN", "SPLIT", "RESIDUE", "END"}
 
 
 def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> SyntaxProblem:

@@ -48,8 +48,8 @@ TOKENS = ["claim", "chain", "let", "title", "source", "=", "==", "mod", "by", "r
           "period", "degree", "witness", "periodic(", "constituents(", "lattice_points(", "[[0, 0], [1, 2]]",
           "interior_lattice_points(", "lattice_points_in(", "partitions_extended(", "sawtooth(", "n/2",
           "[1, 2]", "[]", "[[]]", "t", "frobenius([6, 9, 20]) = 43:", "44 = 4*6 + 20",
-          "lemma", "lemma f(k):", "assume", "k >= 1", "k == 1 mod 2", "gcd(k, 2) = 1", "show", "end",
-          "cases k mod 2", "case 1:", "k", "h", "dedekind(2, k)", "lemma f(k)", "use", '"dedekind-lemmas"',
+          "lemma", "lemma f(k):", "given", "k >= 1", "k == 1 mod 2", "gcd(k, 2) = 1", "then", "end",
+          "split k mod 2", "residue 1:", "k", "h", "dedekind(2, k)", "lemma f(k)", "use", '"dedekind-lemmas"',
           '"../x.qcert"', "k/2", "1/(k - 3)", "floor(k/2)", "mod(k, 3)"]
 
 
@@ -243,11 +243,11 @@ def _lemma_text(draw):
     steps = draw(st.lists(st.tuples(_lemma_expr(), st.lists(st.sampled_from(_RULE_NAMES), min_size=1,
                                                                max_size=2)), min_size=1, max_size=3))
     chain = "  chain c: " + lhs + "\n" + "".join(f"    = {e} by {', '.join(r)}\n" for e, r in steps)
-    split = draw(st.sampled_from(["", "  cases k mod 2\n  case 0:\n" + chain + "  case 1:\n" + chain]))
+    split = draw(st.sampled_from(["", "  split k mod 2\n  residue 0:\n" + chain + "  residue 1:\n" + chain]))
     body = chain if not split else split
     head = draw(st.sampled_from(["lemma f(k, h):\n", "lemma f(k):\n", "lemma f(k, k):\n"]))
-    assume = ("  assume " + ", ".join(conds) + "\n") if conds else ""
-    return head + assume + f"  show {lhs} = {rhs}\n" + body + "end\nchain dedekind(2, 7) = 1/7 by lemma f(7, 3)\n"
+    assume = ("  given " + ", ".join(conds) + "\n") if conds else ""
+    return head + assume + f"  then {lhs} = {rhs}\n" + body + "end\nchain dedekind(2, 7) = 1/7 by lemma f(7, 3)\n"
 
 
 @settings(max_examples=300, deadline=None)

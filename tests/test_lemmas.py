@@ -94,7 +94,7 @@ def test_library_is_proved_symbolically_with_a_second_opinion():
     notes = [n for n in report.notes if "lemma" in n]
     assert len(notes) == 12
     assert all("replayed symbolically" in n and "instances" in n for n in notes)
-    assert any("in 2 cases" in n for n in notes)
+    assert any("in 2 residue classes" in n for n in notes)
 
 
 def test_bundled_lemmas_used_at_numbers_and_with_parameters():
@@ -102,8 +102,8 @@ def test_bundled_lemmas_used_at_numbers_and_with_parameters():
 chain dedekind(2, 1001) = 1000*996/(24*1001) by lemma two_over_odd(1001)
 chain dedekind(3, 1000) = (1000 - 1)*(1000 - 10)/36000 by lemma three_over_k(1000)
 lemma five_over_odd(m):
-  assume m >= 0
-  show dedekind(2, 2*m + 1) = m*(m - 2)/(6*(2*m + 1))
+  given m >= 0
+  then dedekind(2, 2*m + 1) = m*(m - 2)/(6*(2*m + 1))
   chain dedekind(2, 2*m + 1) = (2*m)*(2*m - 4)/(24*(2*m + 1)) by lemma two_over_odd(2*m + 1)
 end
 """
@@ -120,8 +120,8 @@ def test_numeric_use_checks_the_assumptions():
 def test_symbolic_use_checks_the_assumptions():
     text = """use "dedekind-lemmas"
 lemma careless(k):
-  assume k >= 1
-  show dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
+  given k >= 1
+  then dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
   chain dedekind(2, k) = (k - 1)*(k - 5)/(24*k) by lemma two_over_odd(k)
 end
 """
@@ -133,8 +133,8 @@ end
 # -- wrong lemmas, each refused with its reason ------------------------------------------------
 
 TWO_ODD = """lemma two_odd(k):
-  assume k >= 1, k == 1 mod 2
-  show dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
+  given k >= 1, k == 1 mod 2
+  then dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
   chain dedekind(2, k)
     = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(k, 2)   by reciprocity
     = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(1, 2)   by reduce
@@ -158,14 +158,14 @@ def test_false_closed_form_is_caught_by_the_algebra_step():
 
 
 def test_false_statement_with_a_true_chain_is_caught_at_the_conclusion():
-    text = TWO_ODD.replace("show dedekind(2, k) = (k - 1)*(k - 5)/(24*k)",
-                           "show dedekind(2, k) = (k - 1)*(k - 5)/(12*k)")
+    text = TWO_ODD.replace("then dedekind(2, k) = (k - 1)*(k - 5)/(24*k)",
+                           "then dedekind(2, k) = (k - 1)*(k - 5)/(12*k)")
     f = failure(text)
-    assert "the last chain must end at the right side of `show`" in f.message
+    assert "the last chain must end at the right side of `then`" in f.message
 
 
 def test_reciprocity_without_coprimality_names_the_condition():
-    f = failure(TWO_ODD.replace("assume k >= 1, k == 1 mod 2", "assume k >= 1"))
+    f = failure(TWO_ODD.replace("given k >= 1, k == 1 mod 2", "given k >= 1"))
     assert (f.line, f.column) == (5, 8)
     assert "does not follow by reciprocity" in f.message
     assert any("the assumptions do not give gcd(2, k) = 1: k can be 0 (mod 2)" in d for d in f.details)
@@ -174,8 +174,8 @@ def test_reciprocity_without_coprimality_names_the_condition():
 
 def test_reduce_whose_residue_is_not_fixed_is_refused():
     text = """lemma guess(k):
-  assume k >= 1
-  show dedekind(k, 3) = dedekind(1, 3)
+  given k >= 1
+  then dedekind(k, 3) = dedekind(1, 3)
   chain dedekind(k, 3) = dedekind(1, 3) by reduce
 end
 """
@@ -186,34 +186,34 @@ end
 
 def test_case_split_missing_a_class_is_refused():
     text = """lemma three(k):
-  assume k >= 1
-  show dedekind(3, k) = (k^2 - 9*k + 10 - 2*k*(3 - 2*mod(k, 3)))/(36*k)
-  cases k mod 3
-  case 1:
+  given k >= 1
+  then dedekind(3, k) = (k^2 - 9*k + 10 - 2*k*(3 - 2*mod(k, 3)))/(36*k)
+  split k mod 3
+  residue 1:
     chain dedekind(3, k) = (3/k + k/3 + 1/(3*k))/12 - 1/4 - dedekind(k, 3) by reciprocity
       = (3/k + k/3 + 1/(3*k))/12 - 1/4 - dedekind(1, 3) by reduce
       = (k - 1)*(k - 10)/(36*k) by value
-  case 2:
+  residue 2:
     chain dedekind(3, k) = (3/k + k/3 + 1/(3*k))/12 - 1/4 - dedekind(k, 3) by reciprocity
       = (3/k + k/3 + 1/(3*k))/12 - 1/4 - dedekind(2, 3) by reduce
       = (k - 2)*(k - 5)/(36*k) by value
 end
 """
     f = failure(text)
-    assert "the cases do not cover k = 0 (mod 3), which the assumptions allow" in f.message
+    assert "the residues given do not cover k = 0 (mod 3), which the assumptions allow" in f.message
     assert (f.line, f.column) == (4, 3)
-    # with gcd(3, k) = 1 assumed, the same two cases cover everything
-    assert check_text(text.replace("assume k >= 1", "assume k >= 1, gcd(3, k) = 1")).ok
+    # with gcd(3, k) = 1 assumed, the same two residues cover everything
+    assert check_text(text.replace("given k >= 1", "given k >= 1, gcd(3, k) = 1")).ok
 
 
 def test_case_split_needs_a_parameter_and_distinct_cases():
     text = """lemma twice(k):
-  assume k >= 1
-  show k = k
-  cases k mod 2
-  case 1:
+  given k >= 1
+  then k = k
+  split k mod 2
+  residue 1:
     chain k = k by arithmetic
-  case 3:
+  residue 3:
     chain k = k by arithmetic
 end
 """
@@ -222,8 +222,8 @@ end
 
 def test_divisor_that_may_vanish_is_refused():
     text = """lemma pole(k):
-  assume k >= 1
-  show 1/(k - 3) = 1/(k - 3)
+  given k >= 1
+  then 1/(k - 3) = 1/(k - 3)
   chain 1/(k - 3) = 1/(k - 3) by arithmetic
 end
 """
@@ -233,8 +233,8 @@ end
 
 def test_floor_of_an_unfixed_residue_is_refused():
     text = """lemma halves(k):
-  assume k >= 1
-  show floor(k/2) = k/2
+  given k >= 1
+  then floor(k/2) = k/2
   chain floor(k/2) = k/2 by arithmetic
 end
 """
@@ -243,8 +243,8 @@ end
 
 def test_floor_of_a_fixed_residue_is_simplified():
     text = """lemma halves(k):
-  assume k >= 1, k == 1 mod 2
-  show floor(k/2) + mod(k, 2) + sawtooth(k/4) = (k + 1)/2 + sawtooth(k/4)
+  given k >= 1, k == 1 mod 2
+  then floor(k/2) + mod(k, 2) + sawtooth(k/4) = (k + 1)/2 + sawtooth(k/4)
   chain floor(k/2) + mod(k, 2) + sawtooth(k/4) = (k + 1)/2 + sawtooth(k/4) by arithmetic
 end
 """
@@ -253,8 +253,8 @@ end
 
 def test_contradictory_assumptions_prove_nothing():
     text = """lemma empty(k):
-  assume k >= 5, k <= 2
-  show dedekind(1, k) = 7
+  given k >= 5, k <= 2
+  then dedekind(1, k) = 7
   chain dedekind(1, k) = 7 by arithmetic
 end
 """
@@ -263,7 +263,7 @@ end
 
 
 def test_statement_may_use_only_parameters():
-    text = "let q = 5\nlemma x(k):\n  assume k >= 1\n  show dedekind(q, k) = 0\n  chain dedekind(q, k) = 0 by arithmetic\nend\n"
+    text = "let q = 5\nlemma x(k):\n  given k >= 1\n  then dedekind(q, k) = 0\n  chain dedekind(q, k) = 0 by arithmetic\nend\n"
     assert "'q' is not a parameter of lemma x" in failure(text).message
 
 
@@ -277,8 +277,8 @@ def test_planted_bug_in_a_symbolic_rule_is_caught_by_the_second_opinion(monkeypa
 
     monkeypatch.setitem(symbolic_rules._RULES, "negate", wrong_negate)
     text = """lemma odd_sum(k):
-  assume k >= 1
-  show dedekind(k - 1, k) = 1/1000 - dedekind(1 - k, k)
+  given k >= 1
+  then dedekind(k - 1, k) = 1/1000 - dedekind(1 - k, k)
   chain dedekind(k - 1, k) = 1/1000 - dedekind(1 - k, k) by negate
 end
 """
@@ -369,8 +369,8 @@ def residue_lemmas(draw):
     steps.append((f"{pre}dedekind({t}, {q})", "reduce"))
     steps.append((f"{-value if sign else value}", "value"))
     body = "\n".join(f"    = {e} by {r_}" for e, r_ in steps)
-    text = (f"lemma drawn(k):\n  assume k >= {low}, k == {r} mod {m}\n"
-            f"  show {start} = {-value if sign else value}\n  chain {start}\n{body}\nend\n")
+    text = (f"lemma drawn(k):\n  given k >= {low}, k == {r} mod {m}\n"
+            f"  then {start} = {-value if sign else value}\n  chain {start}\n{body}\nend\n")
     return text
 
 
@@ -387,7 +387,7 @@ def reciprocity_lemmas(draw):
         # the same closed form as one fraction: (k^2 + c^2 + 1 - 3 c k - 12 c k v)/(12 c k)
         v = value
         final = f"(k^2 + {c * c + 1} - {3 * c}*k - {12 * c * v}*k)/({12 * c}*k)"
-    text = (f"lemma drawn(k):\n  assume k >= 1, k == {r} mod {c}\n  show dedekind({c}, k) = {final}\n"
+    text = (f"lemma drawn(k):\n  given k >= 1, k == {r} mod {c}\n  then dedekind({c}, k) = {final}\n"
             f"  chain dedekind({c}, k)\n"
             f"    = ({c}/k + k/{c} + 1/({c}*k))/12 - 1/4 - dedekind(k, {c}) by reciprocity\n"
             f"    = ({c}/k + k/{c} + 1/({c}*k))/12 - 1/4 - dedekind({r}, {c}) by reduce\n"
@@ -414,7 +414,7 @@ STANDALONE = _standalone_lemmas()
 @settings(max_examples=80, deadline=None)
 @given(st.sampled_from(STANDALONE), st.data())
 def test_corrupting_one_symbol_of_a_proved_lemma_is_rejected(text, data):
-    """A single-symbol change in `show` or in a line of the proof is refused, unless the changed
+    """A single-symbol change in `then` or in a line of the proof is refused, unless the changed
     line still has the value of the original at every instance tried (an equivalent mutant)."""
     from checker.evaluation import Evaluator
     from checker.parsing import parse_certificate
@@ -437,7 +437,7 @@ def test_corrupting_one_symbol_of_a_proved_lemma_is_rejected(text, data):
         assert report.exit_code in (1, 2), report.failures
 
 
-_EXPRESSION_LINE = re.compile(r"^(\s*(?:show .*? = |= |chain (?:\w+: )?\S.*? = ))(.*?)(\s+by .*)?$")
+_EXPRESSION_LINE = re.compile(r"^(\s*(?:then .*? = |= |chain (?:\w+: )?\S.*? = ))(.*?)(\s+by .*)?$")
 _SYMBOL = re.compile(r"\d+|[+\-*/]")
 
 
@@ -448,7 +448,7 @@ def corruptions(text):
     lines = text.split("\n")
     for i, line in enumerate(lines):
         m = _EXPRESSION_LINE.match(line)
-        if not m or line.strip().startswith(("assume", "lemma", "cases", "case")):
+        if not m or line.strip().startswith(("given", "lemma", "split", "residue")):
             continue
         head, expr, tail = m.group(1), m.group(2), m.group(3) or ""
         for sym in _SYMBOL.finditer(expr):
@@ -468,7 +468,7 @@ def assume_any(options):
 # -- budgets -----------------------------------------------------------------------------------
 
 def test_lemma_degree_limit_refuses_huge_powers_at_once():
-    text = ("lemma f(k):\n  assume k >= 1\n  show (k + 1)^3000 = (k + 1)^3000\n"
+    text = ("lemma f(k):\n  given k >= 1\n  then (k + 1)^3000 = (k + 1)^3000\n"
             "  chain (k + 1)^3000 = (k + 1)^3000 by arithmetic\nend\n")
     report = check_text(text)
     f = report.failures[0]
@@ -478,7 +478,7 @@ def test_lemma_degree_limit_refuses_huge_powers_at_once():
 
 def test_lemma_degree_limit_counts_products():
     product = "*".join(["(k + 1)"] * 250)
-    text = f"lemma f(k):\n  assume k >= 1\n  show {product} = 0\n  chain {product} = 0 by arithmetic\nend\n"
+    text = f"lemma f(k):\n  given k >= 1\n  then {product} = 0\n  chain {product} = 0 by arithmetic\nend\n"
     assert "over the limit lemma-degree = 200" in check_text(text).failures[0].message
 
 
@@ -487,22 +487,22 @@ def test_lemma_degree_limit_counts_products():
 def test_gcd_of_neighbours_is_derived_for_reciprocity():
     # gcd(k - 1, k) = 1 always (one Euclid step); k - 1 >= 1 from k >= 2
     text = """lemma neighbours(k):
-  assume k >= 2
-  show dedekind(k - 1, k) + dedekind(k, k - 1) = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4
+  given k >= 2
+  then dedekind(k - 1, k) + dedekind(k, k - 1) = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4
   chain dedekind(k - 1, k) + dedekind(k, k - 1)
     = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4 - dedekind(k, k - 1) + dedekind(k, k - 1)  by reciprocity
     = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4                                           by arithmetic
 end
 """
     assert check_text(text).ok
-    f = failure(text.replace("assume k >= 2", "assume k >= 1"))
+    f = failure(text.replace("given k >= 2", "given k >= 1"))
     assert "dedekind(k, k - 1) is not defined for every allowed value: the assumptions do not give " \
            "k - 1 >= 1" in f.message
 
 
 def test_residue_of_k_plus_one_modulo_k():
     # (k + 1) mod k = 1 for k >= 2, and not for k = 1
-    text = "lemma m(k):\n  assume k >= 2\n  show mod(k + 1, k) = 1\n  chain mod(k + 1, k) = 1 by arithmetic\nend\n"
+    text = "lemma m(k):\n  given k >= 2\n  then mod(k + 1, k) = 1\n  chain mod(k + 1, k) = 1 by arithmetic\nend\n"
     assert check_text(text).ok
     assert "mod(k + 1, k) is not fixed by the assumptions" in failure(text.replace("k >= 2", "k >= 1")).message
 
@@ -510,8 +510,8 @@ def test_residue_of_k_plus_one_modulo_k():
 def test_inverse_from_an_assumed_congruence():
     # s(h', k) = s(h, k) from h h' = 1 (mod k); without it the rule is refused
     text = """lemma inv(h, g, k):
-  assume k >= 1, h*g == 1 mod k
-  show dedekind(g, k) = dedekind(h, k)
+  given k >= 1, h*g == 1 mod k
+  then dedekind(g, k) = dedekind(h, k)
   chain dedekind(g, k) = dedekind(h, k) by inverse
 end
 """

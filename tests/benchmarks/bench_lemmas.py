@@ -23,8 +23,8 @@ from checker.parsing import parse_certificate, resource_dir  # noqa: E402
 LIBRARY = resource_dir("checker.certificates", "certificates") / "dedekind-lemmas.qcert"
 
 TWO = """lemma two_over_odd(k):
-  assume k >= 1, k == 1 mod 2
-  show dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
+  given k >= 1, k == 1 mod 2
+  then dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
   chain dedekind(2, k)
     = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(k, 2)   by reciprocity
     = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(1, 2)   by reduce

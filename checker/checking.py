@@ -143,7 +143,8 @@ class _Replay:
         self.source_note = None
         self.lemmas: dict = {}         # name -> lemmas.LemmaInfo, verified
         self.using: tuple = ()         # certificates being checked for `use`, outermost first
-        self.library: dict = {}        # resolved path -> lemmas it proves (or the failure)
+        self.library: dict = {}        # resolved path -> (lemmas or the failure, files read)
+        self.read: dict = {}           # files read for `use`, path -> digest
 
     # -- driving -------------------------------------------------------------
     def run(self):

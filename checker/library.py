@@ -52,10 +52,7 @@ def resolve_use(using: str, target: str) -> Path:
 
 
 def use_lemmas(replay, stmt) -> list:
-    """The lemmas of the certificate `stmt.target` names, checked first (cached per run)."""
-    from .checking import _Replay, read_certificate_text
-    from .parsing import parse_certificate
-    from .report import Report
+    """The lemmas of the certificate `stmt.target` names, checked first (once per run)."""
     try:
         path = resolve_use(replay.report.name, stmt.target)
     except CertificateError as e:
@@ -68,34 +65,60 @@ def use_lemmas(replay, stmt) -> list:
         raise CertificateError(f"use makes a cycle: {loop}").at(stmt)
     if len(chain) >= _MAX_DEPTH:
         raise CertificateError(f"use is nested more than {_MAX_DEPTH} certificates deep").at(stmt)
-    result = replay.library.get(key)
-    if result is None:
-        try:
-            text = read_certificate_text(path, replay.limits)
-            cert = parse_certificate(text, key, replay.limits)
-        except (UnreadableFile, CertificateError) as e:
-            result = e
-        else:
-            remembered = (key, hashlib.sha256(text.encode()).hexdigest(), replay.limits)
-            result = _VERIFIED.get(remembered)
-        if result is None:
-            report = Report(name=key, text=text)
-            nested = _Replay(cert, report, replay.limits, False)
-            nested.using = chain
-            nested.library = replay.library
-            nested.deadline = replay.deadline
-            nested.run()
-            result = report.failures[0] if report.failures else list(nested.lemmas.values())
-            if len(_VERIFIED) > 64:
-                _VERIFIED.clear()
-            _VERIFIED[remembered] = result
-        replay.library[key] = result
+    known = replay.library.get(key)
+    if known is None:
+        known = _checked(replay, path, key, chain)
+        replay.library[key] = known
+    result, read = known
+    replay.read.update(read)
     if isinstance(result, list):
         return result
     where = f"{stmt.target}:{result.line}:{result.column}" if getattr(result, "line", None) else stmt.target
     message = getattr(result, "message", str(result))
     raise CertificateError(f"{stmt.target} does not check, so its lemmas cannot be used: {where}: "
                            f"{message}").at(stmt)
+
+
+def _checked(replay, path: Path, key: str, chain: tuple):
+    """(the lemmas or the first failure, {path: digest} of every file the check read).
+
+    A process-wide memo skips re-checking an unchanged file, but only while every file
+    its check read, the ones it uses included, still has the digest it had then."""
+    from .checking import _Replay, read_certificate_text
+    from .parsing import parse_certificate
+    from .report import Report
+    try:
+        text = read_certificate_text(path, replay.limits)
+        cert = parse_certificate(text, key, replay.limits)
+    except (UnreadableFile, CertificateError) as e:
+        return e, {}
+    remembered = (key, _digest_text(text), replay.limits)
+    hit = _VERIFIED.get(remembered)
+    if hit is not None and all(_digest_file(p) == d for p, d in hit[1].items()):
+        return hit
+    report = Report(name=key, text=text)
+    nested = _Replay(cert, report, replay.limits, False)
+    nested.using = chain
+    nested.library = replay.library
+    nested.deadline = replay.deadline
+    nested.run()
+    result = report.failures[0] if report.failures else list(nested.lemmas.values())
+    known = (result, {key: remembered[1], **nested.read})
+    if len(_VERIFIED) > 64:
+        _VERIFIED.clear()
+    _VERIFIED[remembered] = known
+    return known
+
+
+def _digest_text(text: str) -> str:
+    return hashlib.sha256(text.encode()).hexdigest()
+
+
+def _digest_file(path: str) -> str:
+    try:
+        return _digest_text(Path(path).read_bytes().decode("utf-8", "replace"))
+    except OSError:
+        return ""
 
 
 def _key_of(name: str) -> str:

@@ -28,7 +28,7 @@ from math import gcd as _gcd
 from typing import Union
 
 __all__ = ["RationalFunction", "Value", "poly_text", "names_of", "is_integer_polynomial",
-           "poly_eval", "value_at", "substitute_value", "as_polynomial"]
+           "poly_eval", "as_polynomial"]
 
 _ZERO = Fraction(0)
 
@@ -357,25 +357,3 @@ def as_polynomial(x):
     if isinstance(x, RationalFunction):
         return x.num if x.is_polynomial else None
     return {(): Fraction(x)} if x else {}
-
-
-def value_at(x, values: dict) -> Fraction:
-    """A Fraction or RationalFunction at given parameter values."""
-    return x.at(values) if isinstance(x, RationalFunction) else Fraction(x)
-
-
-def substitute_value(x, env: dict):
-    """x with its parameters replaced by values (Fractions or RationalFunctions)."""
-    if not isinstance(x, RationalFunction):
-        return x
-    return _poly_at(x.num, env) / _poly_at(x.den, env)
-
-
-def _poly_at(p: dict, env: dict):
-    total = _ZERO
-    for m, c in p.items():
-        term = c
-        for n, e in m:
-            term = term * (env[n] ** e)
-        total = total + term
-    return total

@@ -563,3 +563,14 @@ def test_latex_marks_a_failing_lemma_step():
     assert r"\paragraph{Lemma (two\_odd).}" in doc
     marked = [ln for ln in doc.splitlines() if r"\fbox" in ln]
     assert len(marked) == 1 and "by value" not in marked[0] and r"\text{(value)}" in marked[0]
+
+
+def test_an_edited_file_two_uses_deep_is_checked_again(tmp_path):
+    # a.qcert uses b.qcert uses c.qcert; after c is made false, a must fail, though b is unchanged
+    (tmp_path / "c.qcert").write_text(TWO_ODD)
+    (tmp_path / "b.qcert").write_text('use "c.qcert"\n')
+    (tmp_path / "a.qcert").write_text('use "b.qcert"\nchain dedekind(2, 9) = 8*4/(24*9) by lemma two_odd(9)\n')
+    assert check_file(tmp_path / "a.qcert").ok
+    (tmp_path / "c.qcert").write_text(TWO_ODD.replace("by reduce", "by negate"))
+    f = check_file(tmp_path / "a.qcert").failures[0]
+    assert "b.qcert does not check" in f.message and "c.qcert does not check" in f.message

@@ -10,19 +10,20 @@ Public surface:
 - ``CertificateError`` and its subclasses: every error a user can cause.
 - ``Limits``: the budgets that bound costly requests.
 """
-from . import functions
-from .errors import BudgetExceeded, CertificateError, DomainError, RuleRefused, SyntaxProblem, UsageError
-from .builder import Certificate
-from .checking import check_file, check_text
-from .evaluation import evaluate, evaluate_value
-from .report import Failure, Report
-from .limits import DEFAULT_LIMITS, Limits
+from .foundation.errors import (BudgetExceeded, CertificateError, DomainError, RuleRefused, SyntaxProblem,
+                                UsageError)
+from .foundation.limits import DEFAULT_LIMITS, Limits
+from .foundation.version import __version__
+from .kernel import functions
+from .replay.checking import check_file, check_text
+from .replay.report import Failure, Report
+from .replay.values import evaluate, evaluate_value
+from .interfaces.builder import Certificate
 
 __all__ = [
     "evaluate", "evaluate_value", "functions", "check_text", "check_file", "Report", "Failure",
     "Certificate",
     "CertificateError", "SyntaxProblem", "DomainError", "BudgetExceeded", "RuleRefused", "UsageError",
-    "Limits", "DEFAULT_LIMITS",
+    "Limits", "DEFAULT_LIMITS", "__version__",
 ]
 
-__version__ = "0.1.0"

@@ -1,3 +1,3 @@
-from .cli import entry
+from .interfaces.cli import entry
 
 entry()

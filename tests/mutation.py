@@ -9,8 +9,8 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
-from checker import statements as st
-from checker.parsing import parse_certificate
+from checker.language import statements as st
+from checker.language.parsing import parse_certificate
 
 
 @dataclass(frozen=True)

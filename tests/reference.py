@@ -15,8 +15,8 @@ from fractions import Fraction
 from functools import lru_cache
 
 from checker import functions
-from checker.dedekind import dedekind_by_definition, generalized_dedekind_by_definition
-from checker.second_opinion import fourier_dedekind_by_convolution, frobenius_by_scan
+from checker.mathematics.dedekind import dedekind_by_definition, generalized_dedekind_by_definition
+from checker.mathematics.second_opinion import fourier_dedekind_by_convolution, frobenius_by_scan
 
 
 def _fourier(n, parts, b):

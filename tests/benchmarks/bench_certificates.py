@@ -15,9 +15,9 @@ import time
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 from checker import check_text  # noqa: E402
-from checker.dedekind import dedekind  # noqa: E402
-from checker.derive import derive_dedekind  # noqa: E402
-from checker.numbers import value_text  # noqa: E402
+from checker.mathematics.dedekind import dedekind  # noqa: E402
+from checker.interfaces.derive import derive_dedekind  # noqa: E402
+from checker.foundation.numbers import value_text  # noqa: E402
 
 
 def timed(fn):

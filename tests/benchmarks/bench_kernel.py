@@ -15,9 +15,9 @@ sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 import flint  # noqa: E402
 
-from checker.dedekind import dedekind  # noqa: E402
-from checker.fourier_dedekind import fourier_dedekind  # noqa: E402
-from checker.partitions import PartitionQuasiPolynomial, partitions, partitions_by_table  # noqa: E402
+from checker.mathematics.dedekind import dedekind  # noqa: E402
+from checker.mathematics.fourier_dedekind import fourier_dedekind  # noqa: E402
+from checker.mathematics.partitions import PartitionQuasiPolynomial, partitions, partitions_by_table  # noqa: E402
 
 
 def best_of(fn, repeat=5):
@@ -40,7 +40,7 @@ def coprime_pairs(rng, digits, count):
 
 
 def bench_dedekind():
-    import checker.dedekind as module
+    import checker.mathematics.dedekind as module
     print("dedekind(h, k) against python-flint fmpq.dedekind_sum (goal: 3x, 3x, 10x)")
     saved = module._gmp_invert
     for mode in ("with gmpy2", "pure Python"):

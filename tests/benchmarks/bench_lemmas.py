@@ -17,9 +17,10 @@ sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 import flint  # noqa: E402
 
 from checker import check_file, check_text  # noqa: E402
-from checker import instances  # noqa: E402
-from checker.evaluation import Evaluator  # noqa: E402
-from checker.parsing import parse_certificate, resource_dir  # noqa: E402
+from checker.replay import instances  # noqa: E402
+from checker.kernel.evaluation import Evaluator  # noqa: E402
+from checker.foundation.resources import resource_dir  # noqa: E402
+from checker.language.parsing import parse_certificate  # noqa: E402
 
 LIBRARY = resource_dir("checker.certificates", "certificates") / "dedekind-lemmas.qcert"
 

@@ -12,10 +12,10 @@ from fractions import Fraction
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 from checker import check_text  # noqa: E402
-from checker.derive import derive_partitions  # noqa: E402
-from checker.floor_sums import floor_sum  # noqa: E402
-from checker.partitions import PartitionQuasiPolynomial, partitions_by_table  # noqa: E402
-from checker.polytopes import lattice_points  # noqa: E402
+from checker.interfaces.derive import derive_partitions  # noqa: E402
+from checker.mathematics.floor_sums import floor_sum  # noqa: E402
+from checker.mathematics.partitions import PartitionQuasiPolynomial, partitions_by_table  # noqa: E402
+from checker.mathematics.polytopes import lattice_points  # noqa: E402
 
 
 def timed(fn, repeat=1):

@@ -20,7 +20,7 @@ from make_table import write  # noqa: E402
 PROBE = r"""
 import json, resource, sys, time
 sys.path.insert(0, sys.argv[1])
-from checker.tables import check_table
+from checker.interfaces.tables import check_table
 t = time.perf_counter()
 r = check_table(sys.argv[2], jobs=int(sys.argv[3]))
 dt = time.perf_counter() - t
@@ -31,7 +31,7 @@ print(json.dumps({"seconds": dt, "kib": resource.getrusage(resource.RUSAGE_SELF)
 KERNEL = r"""
 import csv, sys, time
 sys.path.insert(0, sys.argv[1])
-from checker.dedekind import dedekind
+from checker.mathematics.dedekind import dedekind
 rows = list(csv.reader(open(sys.argv[2])))[1:]
 pairs = [(int(h), int(k)) for _, h, k, _ in rows]
 t = time.perf_counter()

@@ -18,8 +18,8 @@ sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 from fractions import Fraction  # noqa: E402
 
-from checker.dedekind import dedekind  # noqa: E402
-from checker.numbers import value_text  # noqa: E402
+from checker.mathematics.dedekind import dedekind  # noqa: E402
+from checker.foundation.numbers import value_text  # noqa: E402
 
 
 def rows(count, digits, wrong_every, seed=0):

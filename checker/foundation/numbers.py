@@ -1,0 +1,57 @@
+"""Turning exact values into text and back, for integers of any size.
+
+Python refuses int <-> str conversions beyond 4300 digits by default (a
+guard against slow quadratic conversion); quasicert has its own size budget,
+so it converts long numbers in pieces instead of lifting the global limit.
+
+>>> value_text(Fraction(-3, 17)), value_text(Fraction(4))
+('-3/17', '4')
+>>> text_int("9" * 5000) == 10**5000 - 1
+True
+"""
+from __future__ import annotations
+
+from fractions import Fraction  # noqa: F401  (the doctests use it)
+
+__all__ = ["atom_text", "int_text", "text_int", "value_text"]
+
+_DIRECT_BITS = 12_000     # about 3600 digits: below Python's 4300-digit guard
+_DIRECT_DIGITS = 4_000
+
+
+def int_text(n: int) -> str:
+    """Decimal text of any integer."""
+    if n < 0:
+        return "-" + int_text(-n)
+    if n.bit_length() <= _DIRECT_BITS:
+        return str(n)
+    k = (n.bit_length() * 3 // 10) // 2        # about half the digits
+    high, low = divmod(n, 10 ** k)
+    return int_text(high) + int_text(low).rjust(k, "0")
+
+
+def text_int(s: str) -> int:
+    """The integer written by a string of decimal digits."""
+    if len(s) <= _DIRECT_DIGITS:
+        return int(s)
+    k = len(s) // 2
+    return text_int(s[:-k]) * 10 ** k + text_int(s[-k:])
+
+
+def value_text(v) -> str:
+    """An exact value as quasicert prints it: p/q in lowest terms, or a list."""
+    if isinstance(v, (list, tuple)):
+        return "[" + ", ".join(value_text(x) for x in v) + "]"
+    if isinstance(v, int):
+        return int_text(v)
+    if not hasattr(v, "denominator"):       # a rational function of a lemma's parameters
+        return str(v)
+    if v.denominator == 1:
+        return int_text(v.numerator)
+    return f"{int_text(v.numerator)}/{int_text(v.denominator)}"
+
+
+def atom_text(atom) -> str:
+    """A call of a normal form, (name, argument values), as text: `dedekind(5, 17)`."""
+    name, args = atom
+    return f"{name}({', '.join(value_text(a) for a in args)})"

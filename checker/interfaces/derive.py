@@ -1,0 +1,239 @@
+"""Writing certificates that anyone can re-check with `quasicert check`.
+
+For a Dedekind sum s(h, k) the certificate is the Euclid-like chain:
+cancel a common factor, reduce h modulo k, then alternately apply
+reciprocity and reduce (cited together on one line) until s(0, 1) = 0.  Each
+line is  c + e * dedekind(a, b)  with c an exact rational in lowest terms, so
+the lines stay about as long as the numbers themselves.
+"""
+from __future__ import annotations
+
+from fractions import Fraction
+from math import gcd
+
+from ..foundation.errors import DomainError
+from ..kernel.evaluation import Evaluator
+from ..language.expressions import Call
+from ..foundation.numbers import value_text
+from ..language.parsing import parse_expression
+
+__all__ = ["derive", "derive_dedekind"]
+
+
+def _line(c: Fraction, sign: int, h: int, k: int) -> str:
+    call = f"dedekind({value_text(h)}, {value_text(k)})"
+    if c == 0:
+        return call if sign > 0 else f"-{call}"
+    return f"{value_text(c)} {'+' if sign > 0 else '-'} {call}"
+
+
+def derive_dedekind(h: int, k: int, label: str = "derived") -> str:
+    """A certificate whose chain computes s(h, k) by reciprocity and reduction."""
+    if k < 1:
+        raise DomainError(f"dedekind(h, k) needs k >= 1, not {k}")
+    out = [f'title "s({value_text(h)}, {value_text(k)}) by reciprocity and reduction"',
+           "# written by quasicert derive; check it with: quasicert check FILE",
+           f"chain {label}: dedekind({value_text(h)}, {value_text(k)})"]
+    g = gcd(h, k)
+    if g > 1:
+        h, k = h // g, k // g
+        out.append(f"  = dedekind({value_text(h)}, {value_text(k)})    by common_factor")
+    if not 0 <= h < k:
+        h %= k
+        out.append(f"  = dedekind({value_text(h)}, {value_text(k)})    by reduce")
+    # the pairs met by reciprocity followed by reduce: (h, k) -> (k mod h, h)
+    chain = [(h, k)]
+    while chain[-1][0]:
+        a, b = chain[-1]
+        chain.append((b % a, a))
+    # T(a, b) = 12 b s(a, b), from the bottom (0, 1) up: reciprocity gives
+    # a T(a, b) = a^2 + b^2 + 1 - 3ab - b T(b mod a, a), an exact integer division
+    twelve = {}
+    below = 0
+    for a, b in reversed(chain):
+        below = 0 if a == 0 else (a * a + b * b + 1 - 3 * a * b - b * below) // a
+        twelve[(a, b)] = below
+    k0 = chain[0][1]
+    total = twelve[chain[0]]                      # 12 k0 s(h, k)
+    sign = 1
+    for a, b in chain[1:]:
+        sign = -sign
+        # the line c + sign * s(a, b) keeps the value: c = s(h, k) - sign * s(a, b)
+        c = Fraction(total * b - sign * k0 * twelve[(a, b)], 12 * k0 * b)
+        out.append(f"  = {_line(c, sign, a, b)}    by reciprocity, reduce")
+    value = Fraction(total, 12 * k0)
+    out.append(f"  = {value_text(value)}    by value")
+    return "\n".join(out) + "\n"
+
+
+def _polynomial_text(coeffs, var: str) -> str:
+    """sum_j c_j var^j as text, highest power first, zero terms left out."""
+    terms = []
+    for j in range(len(coeffs) - 1, -1, -1):
+        c = coeffs[j]
+        if c == 0:
+            continue
+        mag = value_text(abs(c))
+        body = mag if j == 0 else (f"{mag}*{var}" if j == 1 else f"{mag}*{var}^{j}")
+        if j > 0 and abs(c) == 1:
+            body = var if j == 1 else f"{var}^{j}"
+        terms.append(("-" if c < 0 else "+", body))
+    if not terms:
+        return "0"
+    out = ("-" if terms[0][0] == "-" else "") + terms[0][1]
+    for sign, body in terms[1:]:
+        out += f" {sign} {body}"
+    return out
+
+
+def _list_text(values) -> str:
+    return "[" + ", ".join(value_text(v) for v in values) + "]"
+
+
+def derive_partitions(parts, var: str = "n", label: str = "derived") -> str:
+    """A certificate stating P_A as polynomial part plus periodic waves, and the identity with p_A."""
+    from math import gcd
+    from ..mathematics.partitions import PartitionQuasiPolynomial, check_parts
+    parts = check_parts(list(parts))
+    qp = PartitionQuasiPolynomial.of(tuple(parts))
+    terms = [_polynomial_text(qp.polynomial, var)]
+    for wave in qp.waves[1:]:
+        b, top = wave[0], wave[1]
+        rows = [PartitionQuasiPolynomial._wave_polynomial(wave, r) for r in range(b)]
+        for j in range(top + 1):
+            values = [row[j] for row in rows]
+            if any(values):
+                power = "" if j == 0 else (f"*{var}" if j == 1 else f"*{var}^{j}")
+                terms.append(f"periodic({var}, {_list_text(values)}){power}")
+    a_text = _list_text(parts)
+    start = -sum(parts) + 1
+    out = [f'title "p_A({var}) for A = {a_text} as a quasi-polynomial"',
+           "# written by quasicert derive; check it with: quasicert check FILE",
+           "# P_A = polynomial part + one wave of period b for each b > 1 dividing a part;",
+           f"# it equals p_A({var}) for {var} > -(sum of the parts)",
+           f"let A = {a_text}",
+           f"identity {label}: for {var} >= {start}:",
+           f"  partitions({var}, A) = " + "\n    + ".join(terms)]
+    if len(set(parts)) == len(parts) and all(gcd(a, c) == 1 for i, a in enumerate(parts) for c in parts[i + 1:]):
+        fd = [f"fourier_dedekind(-{var}, {_list_text(parts[:i] + parts[i + 1:])}, {a})"
+              for i, a in enumerate(parts) if a > 1]
+        out += ["# pairwise coprime parts: the waves are Fourier-Dedekind sums",
+                f"identity {label}_sums: for {var} >= {start}:",
+                f"  partitions({var}, A) = {_polynomial_text(qp.polynomial, var)}"
+                + "".join(f"\n    + {t}" for t in fd)]
+    return "\n".join(out) + "\n"
+
+
+def _interpolate(points):
+    """Coefficients of the polynomial through (x_i, y_i), exactly (Lagrange)."""
+    n = len(points)
+    coeffs = [Fraction(0)] * n
+    for i, (xi, yi) in enumerate(points):
+        basis = [Fraction(1)]
+        denom = Fraction(1)
+        for j, (xj, _) in enumerate(points):
+            if j != i:
+                basis = [Fraction(0)] + basis
+                for k in range(len(basis) - 1):
+                    basis[k] -= xj * basis[k + 1]
+                denom *= xi - xj
+        for k in range(n):
+            coeffs[k] += yi * basis[k] / denom
+    return coeffs
+
+
+def derive_ehrhart(call_text: str, count, degree: int, period: int, var: str = "t",
+                   label: str = "derived") -> str:
+    """Constituents of an Ehrhart quasi-polynomial from exact counts at t = 0 .. (D+1)L - 1."""
+    rows = []
+    for r in range(period):
+        pts = [(Fraction(r + i * period), count(r + i * period)) for i in range(degree + 1)]
+        rows.append(_interpolate(pts))
+    table = "[" + ", ".join(_list_text(row) for row in rows) + "]"
+    return "\n".join([
+        f'title "Ehrhart quasi-polynomial of {call_text}"',
+        "# written by quasicert derive; check it with: quasicert check FILE",
+        f"# degree {degree}, period {period}: one constituent polynomial per residue of {var} mod {period}",
+        f"identity {label}: for {var} >= 0:",
+        f"  {call_text.replace('(' + var + ',', '(' + var + ',', 1)} = constituents({var}, {table})"]) + "\n"
+
+
+def derive_frobenius(parts, label: str = "derived") -> str:
+    """A witness: p_A(g) = 0 and a representation of each of g + 1, ..., g + min(A)."""
+    import heapq
+    from ..mathematics.frobenius import frobenius
+    from ..mathematics.partitions import check_parts
+    parts = sorted(set(check_parts(list(parts), "frobenius")))
+    g = frobenius(parts).numerator
+    a1 = parts[0]
+    # least representable number in each residue class mod a1, with the part added last
+    best = [None] * a1
+    last = [None] * a1
+    best[0] = 0
+    heap = [(0, 0)]
+    while heap:
+        w, r = heapq.heappop(heap)
+        if w != best[r]:
+            continue
+        for a in parts[1:]:
+            w2, r2 = w + a, (r + a) % a1
+            if best[r2] is None or w2 < best[r2]:
+                best[r2], last[r2] = w2, a
+                heapq.heappush(heap, (w2, r2))
+
+    def representation(m):
+        counts = {a: 0 for a in parts}
+        r = m % a1
+        rest = m - best[r]
+        counts[a1] += rest // a1
+        while r:
+            a = last[r]
+            counts[a] += 1
+            r = (r - a) % a1
+        terms = [(f"{c}*{a}" if c != 1 else f"{a}") for a, c in counts.items() if c]
+        return " + ".join(terms) if terms else "0"
+
+    reps = [f"  {m} = {representation(m)}" for m in range(g + 1, g + a1 + 1)]
+    return "\n".join([
+        f'title "Frobenius number of {_list_text(parts)}"',
+        "# written by quasicert derive; check it with: quasicert check FILE",
+        f"# {g} is not representable, and every integer from {g + 1} to {g + a1} is, hence every larger one",
+        f"witness {label}: frobenius({_list_text(parts)}) = {g}:",
+        ",\n".join(reps)]) + "\n"
+
+
+def derive(text: str) -> str:
+    """A certificate for a call: dedekind(h, k), partitions(n, A), lattice_points(t, P), frobenius(A)."""
+    expr = parse_expression(text)
+    if not isinstance(expr, Call):
+        raise DomainError("derive writes certificates for one function call, "
+                          "e.g. quasicert derive \"dedekind(5, 17)\"").at(expr)
+    from ..language import expressions as ex
+    ev = Evaluator()
+    if expr.name == "dedekind" and len(expr.args) == 2:
+        h, k = [ev.value(a) for a in expr.args]
+        if not (isinstance(h, Fraction) and isinstance(k, Fraction) and h.denominator == 1 == k.denominator):
+            raise DomainError("dedekind(h, k) needs integers h and k").at(expr)
+        return derive_dedekind(h.numerator, k.numerator)
+    if expr.name in ("partitions", "lattice_points", "lattice_points_in") and len(expr.args) == 2:
+        var = expr.args[0]
+        if not isinstance(var, ex.Name):
+            raise DomainError(f"give {expr.name} a variable as its first argument, e.g. "
+                              f"{expr.name}(n, ...), to derive its quasi-polynomial").at(var)
+        arg = ev.value(expr.args[1])
+        if expr.name == "partitions":
+            return derive_partitions(arg, var.name)
+        from ..mathematics.polytopes import (check_inequalities, check_points, inequality_vertex_denominator,
+                                lattice_points, lattice_points_inequalities, vertex_denominator)
+        call_text = text.strip()
+        if expr.name == "lattice_points":
+            pts = check_points(arg)
+            return derive_ehrhart(call_text, lambda t: lattice_points(t, arg), 2, vertex_denominator(pts),
+                                  var.name)
+        dim, rows = check_inequalities(arg)
+        return derive_ehrhart(call_text, lambda t: lattice_points_inequalities(t, arg), dim,
+                              inequality_vertex_denominator(rows), var.name)
+    if expr.name == "frobenius" and len(expr.args) == 1:
+        return derive_frobenius(ev.value(expr.args[0]))
+    raise DomainError("derive writes certificates for dedekind(h, k), partitions(n, A), "
+                      f"lattice_points(t, P), lattice_points_in(t, P) and frobenius(A); not for {expr.name}").at(expr)

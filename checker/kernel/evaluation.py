@@ -1,0 +1,309 @@
+"""Exact evaluation of expression trees.
+
+Values are Fractions, or tuples of them for lists.  Every problem is a
+CertificateError pointing at the sub-expression that caused it; every costly
+step is measured against the Limits first.  No text is ever executed: the
+tree comes from the grammar, and names resolve only to values bound by the
+certificate or to the functions of ``checker.kernel.functions``.
+"""
+from __future__ import annotations
+
+import difflib
+from fractions import Fraction
+
+from ..language import expressions as ex
+from ..mathematics.dedekind import dedekind_along_euclid
+from ..foundation.errors import BudgetExceeded, CertificateError, CheckerBug, DomainError
+from .functions import REGISTRY
+from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..foundation.numbers import atom_text, value_text
+from ..mathematics.second_opinion import second_opinion
+
+__all__ = ["Evaluator", "binding"]
+
+_MEMO_SIZE = 400_000
+_EUCLID_MEMO_BITS = 256     # from this size on, one pass fills every pair of a reciprocity chain
+
+
+class Evaluator:
+    """Evaluates trees in an environment of named values, with a memo of function values."""
+
+    def __init__(self, env: dict | None = None, limits: Limits = DEFAULT_LIMITS,
+                 paranoid: bool = False):
+        self.env = dict(env or {})
+        self.limits = limits
+        self.memo: dict = {}
+        self.paranoid = paranoid
+        self.second_opinions = 0       # values computed twice, in paranoid mode
+
+    # -- public -------------------------------------------------------------
+    def value(self, node: ex.Expr):
+        """Fraction or tuple of Fractions."""
+        method = getattr(self, "_" + type(node).__name__)
+        try:
+            return method(node)
+        except CertificateError as e:
+            raise e.at(node)
+        except RecursionError:
+            raise BudgetExceeded("the expression is nested too deeply to evaluate").at(node) from None
+
+    def number(self, node: ex.Expr) -> Fraction:
+        v = self.value(node)
+        if isinstance(v, tuple):
+            raise DomainError("a list stands where a number is needed").at(node)
+        return v
+
+    def call(self, name: str, args: tuple, node=None):
+        """Value of a function at concrete arguments, memoised."""
+        spec = REGISTRY.get(name)
+        if spec is None:
+            raise DomainError(_unknown_function(name)).at(node)
+        key = (name, _canonical(name, args))
+        hit = self.memo.get(key)
+        if hit is not None:
+            return hit
+        if name == "partitions" and len(args) == 2:
+            value = self._from_partition_table(args)
+            if value is not None:
+                self._remember(key, value)
+                return value
+        if name == "dedekind" and not self.paranoid and self._fill_euclid(args):
+            hit = self.memo.get(key)
+            if hit is not None:
+                return hit
+        result = spec.call(args, self.limits)
+        self._check_size(result)
+        if self.paranoid:
+            self._second_opinion(name, args, result)
+        self._remember(key, result)
+        return result
+
+    def _second_opinion(self, name, args, result):
+        other = second_opinion(name, args)
+        if other is None:
+            return
+        value, method = other
+        self.second_opinions += 1
+        if value != result:
+            raise CheckerBug(f"{atom_text((name, args))} is {value_text(result)} by the kernel but "
+                             f"{value_text(value)} by {method}: this is a bug in quasicert, "
+                             "please report it with this certificate")
+
+    # -- nodes --------------------------------------------------------------
+    def _Num(self, node):
+        return Fraction(node.value)
+
+    def _Name(self, node):
+        if node.name in self.env:
+            return self.env[node.name]
+        if node.name in REGISTRY:
+            raise DomainError(f"'{node.name}' is a function: call it as "
+                              f"{node.name}({REGISTRY[node.name].signature})")
+        near = difflib.get_close_matches(node.name, list(self.env), n=1)
+        hint = f" (did you mean '{near[0]}'?)" if near else ""
+        raise DomainError(f"unknown name '{node.name}'{hint}: give it a value with `let` first")
+
+    def _Neg(self, node):
+        return -self.number(node.operand)
+
+    def _Sum(self, node):
+        total = Fraction(0)
+        for sign, term in node.terms:
+            v = self.number(term)
+            total = total + v if sign > 0 else total - v
+            self._check_size(total, term)
+        return total
+
+    def _Product(self, node):
+        factors = node.factors
+        if len(factors) == 2 and type(factors[0][1]) is ex.Num and type(factors[1][1]) is ex.Num:
+            # the common literal p/q or p*q: one Fraction instead of three
+            a, (divide, b) = factors[0][1].value, factors[1]
+            if not divide:
+                return Fraction(a * b.value)
+            if b.value == 0:
+                raise DomainError("division by zero: this divisor is 0").at(b)
+            return Fraction(a, b.value)
+        acc = Fraction(1)
+        for divide, factor in node.factors:
+            v = self.number(factor)
+            if divide:
+                if v == 0:
+                    raise DomainError("division by zero: this divisor is 0").at(factor)
+                acc = acc / v
+            else:
+                acc = acc * v
+            self._check_size(acc, factor)
+        return acc
+
+    def _Power(self, node):
+        base = self.number(node.base)
+        exponent = self.number(node.exponent)
+        if exponent.denominator != 1:
+            raise DomainError(f"the exponent must be an integer, not {exponent} "
+                              "(a fractional power is not rational in general)").at(node.exponent)
+        e = exponent.numerator
+        if base == 0 and e < 0:
+            raise DomainError("0 to a negative power is a division by zero").at(node)
+        if base in (0, 1):
+            return base
+        if base == -1:
+            return Fraction(1 if e % 2 == 0 else -1)
+        size = max(base.numerator.bit_length(), base.denominator.bit_length())
+        # a lower bound on the result's size, within a factor 2: refuse before computing
+        needed = (size - 1) * abs(e) + 1 if abs(e) < (1 << 64) else 1 << 64
+        self.limits.require("integer_bits", needed, f"the power {_short(base)}^{_short(exponent)}")
+        result = base ** e
+        self._check_size(result, node)
+        return result
+
+    def _Call(self, node):
+        args = tuple(self.value(a) for a in node.args)
+        return self.call(node.name, args, node)
+
+    def _ListExpr(self, node):
+        cache = self.__dict__.setdefault("_literal_lists", {})
+        hit = cache.get(id(node))
+        if hit is not None and hit[0] is node:
+            return hit[1]
+        value = tuple(self.value(item) for item in node.items)
+        if _literal(node):
+            # identities evaluate the same table at many points: build it once
+            cache[id(node)] = (node, value)
+        return value
+
+    def _FiniteSum(self, node):
+        lower = _integer(self.number(node.lower), "the lower end of a sum", node.lower)
+        upper = _integer(self.number(node.upper), "the upper end of a sum", node.upper)
+        count = upper - lower + 1
+        self.limits.require("terms", max(count, 0), f"a sum of {max(count, 0)} terms")
+        total = Fraction(0)
+        for _ in binding(self.env, node.var, range(lower, upper + 1)):
+            total += self.number(node.body)
+            self._check_size(total, node)
+        return total
+
+    # -- helpers ------------------------------------------------------------
+    def _check_size(self, v, node=None):
+        if isinstance(v, Fraction):
+            bits = max(v.numerator.bit_length(), v.denominator.bit_length())
+            if bits > self.limits.integer_bits:
+                raise BudgetExceeded(f"an intermediate value has {bits} bits, over the limit "
+                                     f"integer-bits = {self.limits.integer_bits}").at(node)
+
+    def _remember(self, key, value):
+        if len(self.memo) > _MEMO_SIZE:
+            self.memo.clear()
+        self.memo[key] = value
+
+    def _from_partition_table(self, args):
+        """p_A(n) from a table kept for A and grown as needed (identities ask for n = 0, 1, 2, ...)."""
+        from ..mathematics.partitions import check_parts
+        n, parts = args
+        if not (isinstance(n, Fraction) and n.denominator == 1 and isinstance(parts, tuple)):
+            return None
+        try:
+            parts = check_parts(parts)
+        except CertificateError:
+            return None
+        n = n.numerator
+        if n < 0:
+            return Fraction(0)
+        tables = self.__dict__.setdefault("_partition_tables", {})
+        table = tables.get(parts)
+        if table is None or n >= len(table):
+            size = max(n + 1, 2 * len(table) if table else 0)
+            if size * len(parts) > min(self.limits.terms, 4_000_000) or size > 1_000_000:
+                return None          # the kernel's own choice (quasi-polynomial) is cheaper
+            table = _table(parts, size)
+            tables[parts] = table
+        return Fraction(table[n])
+
+    def _fill_euclid(self, args) -> bool:
+        """For big arguments, compute s at every pair of the Euclid chain at once."""
+        if len(args) != 2 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
+            return False
+        h, k = args[0].numerator, args[1].numerator
+        if k < 1 or k.bit_length() < _EUCLID_MEMO_BITS:
+            return False
+        values = dedekind_along_euclid(h, k)
+        for (a, b), v in values.items():
+            self._remember(("dedekind", (Fraction(a), Fraction(b))), v)
+        self._remember(("dedekind", args), values[_reduced(h, k)])
+        return True
+
+
+_MISSING = object()
+
+
+def binding(env: dict, var: str, values):
+    """Bind `var` to each value in turn (as a Fraction), restoring what it was afterwards."""
+    saved = env.get(var, _MISSING)
+    try:
+        for v in values:
+            env[var] = Fraction(v)
+            yield v
+    finally:
+        if saved is _MISSING:
+            env.pop(var, None)
+        else:
+            env[var] = saved
+
+
+def _literal(node) -> bool:
+    """Numbers, fractions, signs and lists of them only: the value cannot change."""
+    stack = [node]
+    while stack:
+        x = stack.pop()
+        if not isinstance(x, (ex.Num, ex.ListExpr, ex.Neg, ex.Product, ex.Sum)):
+            return False
+        stack.extend(ex.children(x))
+    return True
+
+
+def _table(parts, size):
+    from itertools import accumulate
+    table = [1] + [0] * (size - 1)
+    for a in parts:
+        for r in range(min(a, size)):
+            table[r::a] = accumulate(table[r::a])
+    return table
+
+
+def _canonical(name, args):
+    """Memo key: periodic functions depend on their argument modulo the period only."""
+    try:
+        if name == "dedekind" and len(args) == 2 and args[1].denominator == 1 and args[1] >= 1 \
+                and args[0].denominator == 1:
+            return (args[0] % args[1], args[1])
+        if name == "fourier_dedekind" and len(args) == 3 and isinstance(args[1], tuple) \
+                and args[2].denominator == 1 and args[2] >= 1 and args[0].denominator == 1:
+            b = args[2]
+            return (args[0] % b, args[1], b)
+    except (AttributeError, TypeError):
+        pass
+    return args
+
+
+def _reduced(h, k):
+    from math import gcd
+    h %= k
+    g = gcd(h, k)
+    return h // g, k // g
+
+
+def _integer(v: Fraction, what: str, node) -> int:
+    if v.denominator != 1:
+        raise DomainError(f"{what} must be an integer, not {v}").at(node)
+    return v.numerator
+
+
+def _short(v: Fraction) -> str:
+    s = f"{v.numerator}" if v.denominator == 1 and v.numerator.bit_length() < 200 else "a big number"
+    return s if v.denominator == 1 else "a fraction"
+
+
+def _unknown_function(name: str) -> str:
+    near = difflib.get_close_matches(name, list(REGISTRY), n=2)
+    hint = f" (did you mean {' or '.join(near)}?)" if near else ""
+    return f"unknown function '{name}'{hint}; `quasicert functions` lists them"

@@ -1,0 +1,251 @@
+"""The functions a certificate may call, under their names in the language.
+
+Each name below is also a plain Python callable on ints and Fractions that
+returns a Fraction, so programs can use the kernel without writing text:
+
+>>> from checker import functions
+>>> functions.dedekind(5, 17), functions.frobenius([6, 9, 20])
+(Fraction(1, 17), Fraction(43, 1))
+
+``REGISTRY`` maps each name to a ``FunctionSpec``: its arity, a one-line
+definition, whether the normaliser treats it as plain arithmetic (evaluated
+on sight) or as an atom that rules act upon, and a cost estimate that is
+checked against the budget before any work is done.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from fractions import Fraction
+from typing import Callable, Optional
+
+from ..mathematics.bernoulli import bernoulli, bernoulli_polynomial, periodic_bernoulli
+from ..mathematics.dedekind import dedekind, dedekind_rademacher, generalized_dedekind
+from ..mathematics.elementary import binomial, ceil, floor, frac, gcd, lcm, mod, sawtooth
+from ..foundation.errors import CertificateError, DomainError
+from ..mathematics.floor_sums import floor_sum as _floor_sum
+from ..mathematics.fourier_dedekind import fourier_dedekind
+from ..mathematics.frobenius import frobenius, nonrepresentable_count as nonrepresentable
+from ..foundation.limits import Limits
+from ..mathematics.periodic import constituents, periodic
+from ..mathematics.polytopes import interior_lattice_points, lattice_points, lattice_points_inequalities
+from ..mathematics.partitions import (partitions, partitions_extended, polynomial_part as _polynomial_part,
+                         quasipolynomial_cost, table_cost, check_parts)
+
+__all__ = [
+    "REGISTRY", "FunctionSpec",
+    "sawtooth", "floor", "ceil", "frac", "mod", "gcd", "lcm", "binomial",
+    "bernoulli", "bernoulli_polynomial", "periodic_bernoulli",
+    "dedekind", "dedekind_rademacher", "generalized_dedekind", "fourier_dedekind",
+    "partitions", "partitions_extended", "partitions_polynomial_part",
+    "frobenius", "nonrepresentable", "floor_sum", "periodic", "constituents",
+    "lattice_points", "lattice_points_in", "interior_lattice_points",
+]
+
+
+def lattice_points_in(t, rows) -> Fraction:
+    """#(tP intersected with Z^d) for P = {x : a.x <= b} given as rows [a1, ..., ad, b]."""
+    return lattice_points_inequalities(t, rows)
+
+
+def floor_sum(count, a, b, m) -> Fraction:
+    """sum_{i=0}^{count-1} floor((a i + b)/m), for count >= 0 and m >= 1."""
+    from ..mathematics.elementary import as_integer, as_positive
+    count = as_integer(count, "the first argument of floor_sum")
+    if count < 0:
+        raise DomainError(f"the number of terms of floor_sum must be >= 0, not {count}")
+    return Fraction(_floor_sum(count, as_integer(a, "the second argument of floor_sum"),
+                               as_integer(b, "the third argument of floor_sum"),
+                               as_positive(m, "the fourth argument of floor_sum")))
+
+
+def partitions_polynomial_part(n, parts) -> Fraction:
+    """The polynomial part of P_A, evaluated at n."""
+    from ..mathematics.elementary import as_integer
+    n = as_integer(n, "the first argument of partitions_polynomial_part")
+    total = Fraction(0)
+    for c in reversed(_polynomial_part(parts)):
+        total = total * n + c
+    return total
+
+
+Cost = Optional[tuple]   # (limit name, amount needed, what it is for)
+
+
+@dataclass(frozen=True)
+class FunctionSpec:
+    name: str
+    signature: str
+    definition: str
+    impl: Callable
+    arity: tuple
+    arithmetic: bool = False               # normal forms evaluate it on sight
+    cost: Callable[..., Cost] = lambda *args: None
+
+    def check_arity(self, count: int) -> None:
+        low, high = self.arity
+        if not low <= count <= high:
+            want = str(low) if low == high else f"{low} to {high}"
+            raise DomainError(f"{self.name} takes {want} argument{'s' if high != 1 else ''} "
+                              f"({self.signature}), not {count}")
+
+    def call(self, args, limits: Limits):
+        self.check_arity(len(args))
+        try:
+            need = self.cost(*args)
+        except CertificateError:
+            need = None      # a malformed argument: impl says what is wrong with it
+        if need:
+            limit, amount, what = need
+            limits.require(limit, amount, what)
+        return self.impl(*args)
+
+
+def _int_or_zero(x) -> int:
+    if isinstance(x, Fraction) and x.denominator == 1:
+        return abs(x.numerator)
+    return 0
+
+
+def _list_len(x) -> int:
+    return len(x) if isinstance(x, (list, tuple)) else 0
+
+
+def _cost_bernoulli(n, x=None):
+    return ("bernoulli_index", _int_or_zero(n), f"a Bernoulli number of index {_int_or_zero(n)}")
+
+
+def _cost_linear(k, what):
+    return ("terms", _int_or_zero(k), what)
+
+
+def _cost_generalized(p, h, k):
+    p, k = _int_or_zero(p), _int_or_zero(k)
+    if p > 4000:
+        return ("bernoulli_index", p, f"a generalized Dedekind sum of order {p}")
+    return ("terms", k * max(p, 1), f"summing {k} terms of order {p}")
+
+
+def _cost_fourier(n, parts, b):
+    m, b = _list_len(parts), _int_or_zero(b)
+    if m <= 2:
+        # floor sums on numbers of this size: about bits^2 word steps
+        return ("terms", b.bit_length() ** 2 // 100, f"a Fourier-Dedekind sum modulo a {b.bit_length()}-bit b")
+    return ("terms", b * m, f"a Fourier-Dedekind sum with {m} parameters modulo {b}")
+
+
+def _cost_partitions(n, parts):
+    try:
+        parts = check_parts(parts)
+    except CertificateError:
+        return None
+    n = _int_or_zero(n)
+    biggest = max(parts)
+    table = table_cost(n, parts)
+    if biggest <= 10**7:
+        quasi = min(table, quasipolynomial_cost(parts) // 20)
+    else:
+        quasi = table
+    return ("terms", quasi, f"p_A(n) for n = {n} with parts up to {biggest}")
+
+
+def _cost_extended(n, parts):
+    try:
+        parts = check_parts(parts)
+    except CertificateError:
+        return None
+    if max(parts) > 10**7:
+        return ("terms", max(parts), "the quasi-polynomial of parts this large")
+    return ("terms", quasipolynomial_cost(parts) // 20, "the quasi-polynomial P_A")
+
+
+def _cost_frobenius(parts):
+    try:
+        parts = check_parts(parts, "frobenius")
+    except CertificateError:
+        return None
+    return ("terms", min(parts) * len(parts), f"the residue table modulo {min(parts)}")
+
+
+def _cost_binomial(n, j):
+    jj = _int_or_zero(j)
+    bits = max(1, _int_or_zero(n).bit_length()) if isinstance(n, Fraction) else 1
+    if isinstance(n, Fraction) and n.denominator != 1:
+        bits = n.numerator.bit_length() + n.denominator.bit_length()
+    return ("integer_bits", jj * bits, f"binomial with lower index {jj}")
+
+
+def _cost_floor_sum(count, a, b, m):
+    bits = max(_int_or_zero(x).bit_length() for x in (count, a, b, m))
+    return ("terms", bits ** 2 // 100, f"a floor sum of {bits}-bit numbers")
+
+
+def _cost_lcm(*args):
+    bits = sum(_int_or_zero(x).bit_length() for a in args for x in (a if isinstance(a, tuple) else (a,)))
+    return ("integer_bits", bits, "the least common multiple")
+
+
+def _cost_polytope(t, rows):
+    if not isinstance(rows, tuple) or not rows or not isinstance(rows[0], tuple):
+        return None
+    d = len(rows[0]) - 1
+    t = _int_or_zero(t)
+    # slices: about t^(d-2) polygons, each a handful of floor sums
+    return ("terms", (t + 1) ** max(d - 2, 0) * len(rows) ** 2, f"slicing a {d}-dimensional polytope at t = {t}")
+
+
+def _spec(name, signature, definition, impl, arity, arithmetic=False, cost=None):
+    return FunctionSpec(name, signature, definition, impl, arity, arithmetic,
+                        cost or (lambda *args: None))
+
+
+REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
+    _spec("floor", "x", "the largest integer <= x", floor, (1, 1), True),
+    _spec("ceil", "x", "the smallest integer >= x", ceil, (1, 1), True),
+    _spec("frac", "x", "x - floor(x)", frac, (1, 1), True),
+    _spec("mod", "a, m", "the residue of a modulo m in [0, |m|)", mod, (2, 2), True),
+    _spec("gcd", "a, b, ...", "greatest common divisor", gcd, (1, 1000), True),
+    _spec("lcm", "a, b, ...", "least common multiple", lcm, (1, 1000), True, _cost_lcm),
+    _spec("binomial", "n, j", "n choose j", binomial, (2, 2), True, _cost_binomial),
+    _spec("floor_sum", "count, a, b, m", "sum_{i=0}^{count-1} floor((a i + b)/m)", floor_sum,
+          (4, 4), True, _cost_floor_sum),
+    _spec("sawtooth", "x", "((x)) = x - floor(x) - 1/2, and 0 at integers", sawtooth, (1, 1)),
+    _spec("bernoulli", "n [, x]", "the Bernoulli number B_n (B_1 = -1/2), or the polynomial B_n(x)",
+          bernoulli, (1, 2), False, _cost_bernoulli),
+    _spec("periodic_bernoulli", "n, x", "B_n({x}); for n = 1 the sawtooth ((x))",
+          periodic_bernoulli, (2, 2), False, _cost_bernoulli),
+    _spec("dedekind", "h, k", "s(h, k) = sum_{j=0}^{k-1} ((j/k)) ((hj/k))", dedekind, (2, 2)),
+    _spec("dedekind_rademacher", "h, k, x, y",
+          "s(h, k; x, y) = sum_{j mod k} ((h(j+y)/k + x)) (((j+y)/k))",
+          dedekind_rademacher, (4, 4), False,
+          lambda h, k, x, y: _cost_linear(k, f"a Dedekind-Rademacher sum of {_int_or_zero(k)} terms")),
+    _spec("generalized_dedekind", "p, h, k", "s_p(h, k) = sum_{j mod k} (j/k) Bbar_p(hj/k)",
+          generalized_dedekind, (3, 3), False, _cost_generalized),
+    _spec("fourier_dedekind", "n, [a1, ..., am], b",
+          "(1/b) sum_{j=1}^{b-1} xi^(jn) / prod_i (1 - xi^(j a_i)), xi = exp(2 pi i/b)",
+          fourier_dedekind, (3, 3), False, _cost_fourier),
+    _spec("partitions", "n, [a1, ..., ad]",
+          "p_A(n): the number of ways to write n as a sum of parts from A (0 for n < 0)",
+          partitions, (2, 2), False, _cost_partitions),
+    _spec("partitions_extended", "n, [a1, ..., ad]",
+          "P_A(n): the quasi-polynomial equal to p_A(n) for n > -(a1 + ... + ad)",
+          partitions_extended, (2, 2), False, _cost_extended),
+    _spec("partitions_polynomial_part", "n, [a1, ..., ad]",
+          "the polynomial part of P_A at n", partitions_polynomial_part, (2, 2), False, _cost_extended),
+    _spec("frobenius", "[a1, ..., ad]", "the largest integer not a non-negative combination of A",
+          frobenius, (1, 1), False, _cost_frobenius),
+    _spec("nonrepresentable", "[a1, ..., ad]", "how many positive integers are not combinations of A",
+          nonrepresentable, (1, 1), False, _cost_frobenius),
+    _spec("periodic", "n, [c0, ..., c(L-1)]", "c_(n mod L)", periodic, (2, 2), True),
+    _spec("constituents", "n, [[c00, c01, ...], ...]",
+          "sum_j c_(r,j) n^j for r = n mod L: a quasi-polynomial by its constituents",
+          constituents, (2, 2), True),
+    _spec("lattice_points", "t, [[x1, y1], [x2, y2], ...]",
+          "lattice points in t times the convex hull of rational points in the plane",
+          lattice_points, (2, 2)),
+    _spec("interior_lattice_points", "t, [[x1, y1], [x2, y2], ...]",
+          "lattice points strictly inside t times the convex hull of rational points in the plane",
+          interior_lattice_points, (2, 2)),
+    _spec("lattice_points_in", "t, [[a1, ..., ad, b], ...]",
+          "lattice points in t P for the polytope P = {x : a.x <= b}, d = 2, 3 or 4",
+          lattice_points_in, (2, 2), False, _cost_polytope),
+]}

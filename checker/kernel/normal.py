@@ -1,0 +1,283 @@
+"""Normal forms: how two lines of a chain are compared before any value is computed.
+
+A normal form is a finite sum  sum_m c_m * m  with nonzero rational c_m over
+monomials m = prod atom^e (integer e, possibly negative).  An atom is a call
+of a non-arithmetic function (``dedekind``, ``bernoulli``, ...) at concrete
+arguments: ``("dedekind", (5, 17))``.  Arithmetic functions (floor, mod, gcd,
+...) and everything else are exact rational arithmetic, evaluated on sight.
+Two expressions have the same normal form exactly when they are equal as
+polynomials in their atoms: that is what "the rule produces the next line"
+means, independently of the values of the atoms.
+
+Representation: ``dict[Monomial, Fraction]`` with ``Monomial`` a frozenset of
+``(atom, exponent)`` pairs; the empty frozenset is the constant monomial.
+
+>>> from checker.language.parsing import parse_expression
+>>> from checker.kernel.evaluation import Evaluator
+>>> n = Normaliser(Evaluator())
+>>> a = n.normal(parse_expression("2*dedekind(1, 3) - 1/4 + dedekind(1, 3)"))
+>>> text(a)
+'-1/4 + 3*dedekind(1, 3)'
+"""
+from __future__ import annotations
+
+from fractions import Fraction
+
+from ..language import expressions as ex
+from ..foundation.errors import BudgetExceeded, CertificateError, DomainError
+from .functions import REGISTRY
+from ..foundation.numbers import atom_text, value_text
+from .evaluation import binding
+
+__all__ = ["Normaliser", "NF", "constant", "add", "sub", "mul", "scale", "power",
+           "substitute", "atoms", "text", "atom_text", "is_zero"]
+
+NF = dict
+ONE = frozenset()
+
+
+def constant(c: Fraction) -> NF:
+    return {ONE: Fraction(c)} if c else {}
+
+
+def atom_nf(atom) -> NF:
+    return {frozenset({(atom, 1)}): Fraction(1)}
+
+
+def add(x: NF, y: NF) -> NF:
+    out = dict(x)
+    for m, c in y.items():
+        v = out.get(m, 0) + c
+        if v:
+            out[m] = v
+        else:
+            out.pop(m, None)
+    return out
+
+
+def scale(x: NF, c: Fraction) -> NF:
+    if not c:
+        return {}
+    return {m: v * c for m, v in x.items()}
+
+
+def sub(x: NF, y: NF) -> NF:
+    return add(x, scale(y, Fraction(-1)))
+
+
+def _mono_mul(m1: frozenset, m2: frozenset) -> frozenset:
+    if not m1:
+        return m2
+    if not m2:
+        return m1
+    exps = dict(m1)
+    for a, e in m2:
+        v = exps.get(a, 0) + e
+        if v:
+            exps[a] = v
+        else:
+            exps.pop(a)
+    return frozenset(exps.items())
+
+
+def mul(x: NF, y: NF, limit: int | None = None) -> NF:
+    if limit is not None and len(x) * len(y) > limit:
+        raise BudgetExceeded(f"expanding this product makes {len(x) * len(y)} terms, over the limit "
+                             f"terms = {limit}")
+    out: NF = {}
+    for m1, c1 in x.items():
+        for m2, c2 in y.items():
+            m = _mono_mul(m1, m2)
+            v = out.get(m, 0) + c1 * c2
+            if v:
+                out[m] = v
+            else:
+                out.pop(m, None)
+    return out
+
+
+def monomial_inverse(x: NF) -> NF | None:
+    """1/x when x is a single monomial, else None."""
+    if len(x) != 1:
+        return None
+    (m, c), = x.items()
+    return {frozenset((a, -e) for a, e in m): 1 / c}
+
+
+def power(x: NF, e: int, limit: int | None = None) -> NF | None:
+    if e < 0:
+        inv = monomial_inverse(x)
+        if inv is None:
+            return None
+        x, e = inv, -e
+    result = constant(Fraction(1))
+    base = x
+    while e:
+        if e & 1:
+            result = mul(result, base, limit)
+        e >>= 1
+        if e:
+            base = mul(base, base, limit)
+    return result
+
+
+def atoms(x: NF) -> set:
+    return {a for m in x for a, _ in m}
+
+
+def is_zero(x: NF) -> bool:
+    return not x
+
+
+def substitute(x: NF, atom, replacement: NF, limit: int | None = None) -> NF | None:
+    """x with every occurrence of `atom` replaced by `replacement` (None if a negative
+    power of a sum would be needed)."""
+    out: NF = {}
+    for m, c in x.items():
+        exps = dict(m)
+        e = exps.pop(atom, 0)
+        rest = {frozenset(exps.items()): c}
+        if e:
+            p = power(replacement, e, limit)
+            if p is None:
+                return None
+            rest = mul(rest, p, limit)
+        out = add(out, rest)
+    return out
+
+
+def _sort_key(m: frozenset):
+    return (sum(abs(e) for _, e in m), sorted((atom_text(a), e) for a, e in m))
+
+
+def text(x: NF) -> str:
+    """A readable rendering of a normal form (constant first)."""
+    if not x:
+        return "0"
+    parts = []
+    for m in sorted(x, key=_sort_key):
+        c = x[m]
+        factors = []
+        for a, e in sorted(m, key=lambda ae: atom_text(ae[0])):
+            factors.append(atom_text(a) + (f"^{e}" if e != 1 else ""))
+        body = "*".join(factors)
+        sign = "-" if c < 0 else "+"
+        mag = abs(c)
+        if not body:
+            term = value_text(mag)
+        elif mag == 1:
+            term = body
+        else:
+            term = f"{value_text(mag)}*{body}"
+        parts.append((sign, term))
+    first_sign, first = parts[0]
+    out = ("-" if first_sign == "-" else "") + first
+    for sign, term in parts[1:]:
+        out += f" {sign} {term}"
+    return out
+
+
+class Normaliser:
+    """Expression tree -> normal form, with function arguments evaluated exactly."""
+
+    def __init__(self, evaluator):
+        self.evaluator = evaluator
+        self.limits = evaluator.limits
+        self.positions: dict = {}      # atom -> first Pos where it was written
+
+    def normal(self, node: ex.Expr) -> NF:
+        method = getattr(self, "_" + type(node).__name__)
+        try:
+            return method(node)
+        except CertificateError as e:
+            raise e.at(node)
+
+    def _Num(self, node):
+        return constant(Fraction(node.value))
+
+    def _Name(self, node):
+        return constant(self.evaluator.number(node))
+
+    def _Neg(self, node):
+        return scale(self.normal(node.operand), Fraction(-1))
+
+    def _Sum(self, node):
+        total: NF = {}
+        for sign, term in node.terms:
+            t = self.normal(term)
+            total = add(total, t) if sign > 0 else sub(total, t)
+            self._check_size(total, term)
+        return total
+
+    def _Product(self, node):
+        acc = constant(Fraction(1))
+        for divide, factor in node.factors:
+            f = self.normal(factor)
+            if divide:
+                if not f:
+                    raise DomainError("division by zero: this divisor is 0").at(factor)
+                inv = monomial_inverse(f)
+                if inv is None:
+                    raise DomainError(
+                        "this divisor is a sum involving function calls, which a step cannot "
+                        "compare symbolically; replace the calls by their values first").at(factor)
+                f = inv
+            acc = mul(acc, f, self.limits.terms)
+        return acc
+
+    def _Power(self, node):
+        e = self.evaluator.number(node.exponent)
+        if e.denominator != 1:
+            raise DomainError(f"the exponent must be an integer, not {e}").at(node.exponent)
+        base = self.normal(node.base)
+        if len(base) <= 1 and ONE in base or not base:
+            return constant(self.evaluator.number(node))
+        if abs(e.numerator) > 10_000:
+            raise BudgetExceeded(f"a power {e.numerator} of an expression with function calls is "
+                                 "too large to expand").at(node)
+        out = power(base, e.numerator, self.limits.terms)
+        if out is None:
+            raise DomainError("a negative power of a sum involving function calls cannot be "
+                              "compared symbolically").at(node)
+        return out
+
+    def _Call(self, node):
+        spec = REGISTRY.get(node.name)
+        if spec is None or spec.arithmetic:
+            return constant(self.evaluator.number(node))
+        args = tuple(self.evaluator.value(a) for a in node.args)
+        atom = (node.name, args)
+        simple = _trivial_value(atom)
+        if simple is not None:
+            return constant(simple)
+        self.positions.setdefault(atom, node.pos)
+        return atom_nf(atom)
+
+    def _ListExpr(self, node):
+        raise DomainError("a list stands where a number is needed").at(node)
+
+    def _FiniteSum(self, node):
+        ev = self.evaluator
+        lower = ev.number(node.lower)
+        upper = ev.number(node.upper)
+        if lower.denominator != 1 or upper.denominator != 1:
+            raise DomainError("the ends of a sum must be integers").at(node)
+        count = max(0, upper.numerator - lower.numerator + 1)
+        self.limits.require("unfold_terms", count, f"a sum of {count} terms")
+        total: NF = {}
+        for _ in binding(ev.env, node.var, range(lower.numerator, upper.numerator + 1)):
+            total = add(total, self.normal(node.body))
+        return total
+
+    def _check_size(self, x: NF, node):
+        if len(x) > self.limits.terms:
+            raise BudgetExceeded(f"the expression has {len(x)} terms, over the limit terms = "
+                                 f"{self.limits.terms}").at(node)
+
+
+def _trivial_value(atom):
+    """Values fixed by the definition alone: ((n)) = 0 at integers."""
+    name, args = atom
+    if name == "sawtooth" and len(args) == 1 and isinstance(args[0], Fraction) and args[0].denominator == 1:
+        return Fraction(0)
+    return None

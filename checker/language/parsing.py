@@ -1,0 +1,409 @@
+"""Reading text into expression trees and certificates.
+
+The grammar lives in ``grammar/*.lark`` (shipped inside the package as
+``checker.grammar``).  Lark parses; a Transformer run inside the parser only builds
+the dataclasses of ``expressions`` and ``statements``; nothing here checks
+mathematics.  Every Lark error becomes a ``SyntaxProblem`` whose message names
+what was expected in words, at a 1-based line and column.
+"""
+from __future__ import annotations
+
+from functools import lru_cache
+from pathlib import Path
+
+from lark import Lark, Token, Transformer
+from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
+
+from . import expressions as ex
+from . import statements as st
+from ..foundation.resources import resource_dir
+from ..foundation.errors import BudgetExceeded, CertificateError, SyntaxProblem
+from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..foundation.numbers import text_int
+
+__all__ = ["parse_expression", "parse_certificate", "grammar_text"]
+
+
+def grammar_text() -> str:
+    folder = resource_dir("checker.grammar", "grammar")
+    return (folder / "expression.lark").read_text(encoding="utf-8") + "\n" + \
+        (folder / "certificate.lark").read_text(encoding="utf-8")
+
+
+@lru_cache(maxsize=1)
+def _terminal_names() -> tuple:
+    return tuple(t.name for t in Lark(grammar_text(), parser="lalr", start=["expr", "certificate"]).terminals)
+
+
+@lru_cache(maxsize=8)
+def _parser(limits: Limits = DEFAULT_LIMITS) -> Lark:
+    # the Transformer runs inside the parser (one pass, no tree): much faster
+    # on long certificates, and nothing recursive is left for deep nesting
+    build = _Build(limits)
+    callbacks = {name: build.count_token for name in _terminal_names()}
+    return Lark(grammar_text(), parser="lalr", start=["expr", "certificate"],
+                maybe_placeholders=True, transformer=build, lexer_callbacks=callbacks)
+
+
+def _tpos(tok: Token) -> ex.Pos:
+    return ex.Pos(tok.line, tok.column, tok.end_line, tok.end_column)
+
+
+def _pos_of(item):
+    if isinstance(item, Token):
+        return _tpos(item)
+    return getattr(item, "pos", None)
+
+
+def _span(children) -> ex.Pos:
+    """From the first to the last positioned child."""
+    first = last = None
+    for c in children:
+        p = _pos_of(c) if not isinstance(c, list) else (_span(c) if c else None)
+        if p is None or p.line == 0:
+            continue
+        if first is None:
+            first = p
+        last = p
+    if first is None:
+        return ex.NOWHERE
+    return ex.Pos(first.line, first.column, last.end_line, last.end_column)
+
+
+_RELATIONS = {"=": "=", "<": "<", ">": ">", "<=": "<=", ">=": ">=", "!=": "!=",
+              "\u2264": "<=", "\u2265": ">=", "\u2260": "!="}
+
+
+class _Build(Transformer):
+    """Parser callbacks -> dataclasses.  Builds only; never judges.
+
+    Depth is tracked as nodes are made, so an expression nested beyond the
+    budget is refused before anything recursive walks it.
+    """
+
+    def __init__(self, limits: Limits):
+        super().__init__()
+        self.limits = limits
+        self.depth: dict = {}
+        self.tokens = 0
+
+    def count_token(self, tok):
+        """Refuse texts of more tokens than the budget: parser memory grows with them."""
+        self.tokens += 1
+        if self.tokens > self.limits.tokens:
+            raise BudgetExceeded(f"the text has more than {self.limits.tokens} tokens, the limit tokens = "
+                                 f"{self.limits.tokens} (raise it with --limit tokens=N)",
+                                 tok.line, tok.column)
+        return tok
+
+    def _made(self, node, children):
+        d = 1
+        for c in children:
+            if isinstance(c, list):
+                for x in c:
+                    d = max(d, self.depth.get(id(x), 0) + 1)
+            else:
+                d = max(d, self.depth.get(id(c), 0) + 1)
+        self.depth[id(node)] = d
+        if d > self.limits.nesting:
+            raise BudgetExceeded(
+                f"the expression is nested {d} levels deep, over the limit nesting = "
+                f"{self.limits.nesting}", node.pos.line, node.pos.column)
+        return node
+
+    # -- expressions -------------------------------------------------------
+    def number(self, children):
+        tok = children[0]
+        if len(tok) > self.limits.literal_digits:
+            raise BudgetExceeded(
+                f"an integer literal of {len(tok)} digits is over the limit literal-digits = "
+                f"{self.limits.literal_digits}", tok.line, tok.column)
+        return ex.Num(text_int(str(tok)), _tpos(tok))
+
+    def name(self, children):
+        tok = children[0]
+        return ex.Name(str(tok), _tpos(tok))
+
+    def call(self, children):
+        tok = children[0]
+        args = children[2] or []
+        return self._made(ex.Call(str(tok), tuple(args), _span(children)), args)
+
+    def arguments(self, children):
+        return [c for c in children if not isinstance(c, Token)]
+
+    def list(self, children):
+        items = children[1] or []
+        if len(items) > self.limits.list_length:
+            raise BudgetExceeded(f"a list of {len(items)} entries is over the limit list-length = "
+                                 f"{self.limits.list_length}", children[0].line, children[0].column)
+        return self._made(ex.ListExpr(tuple(items), _span(children)), items)
+
+    def finite_sum(self, children):
+        parts = [c for c in children if not isinstance(c, Token) or c.type == "NAME"]
+        var, lower, upper, body = parts
+        return self._made(ex.FiniteSum(str(var), lower, upper, body, _span(children)), [lower, upper, body])
+
+    def neg(self, children):
+        return self._made(ex.Neg(children[1], _span(children)), [children[1]])
+
+    def power(self, children):
+        return self._made(ex.Power(children[0], children[1], _span(children)), children)
+
+    def sum(self, children):
+        terms = [(1, children[0])]
+        for op, term in zip(children[1::2], children[2::2]):
+            terms.append((1 if op == "+" else -1, term))
+        return self._made(ex.Sum(tuple(terms), _span(children)), children[0::2])
+
+    def product(self, children):
+        factors = [(False, children[0])]
+        for op, factor in zip(children[1::2], children[2::2]):
+            factors.append((op == "/", factor))
+        return self._made(ex.Product(tuple(factors), _span(children)), children[0::2])
+
+    # -- statements --------------------------------------------------------
+    def certificate(self, children):
+        self.depth.clear()
+        return list(children)
+
+    def title(self, children):
+        return st.Title(str(children[1])[1:-1], _span(children))
+
+    def source(self, children):
+        return st.Source(str(children[1])[1:-1], _span(children))
+
+    def let(self, children):
+        return st.Let(str(children[1]), children[3], _span(children))
+
+    def label(self, children):
+        return str(children[0])
+
+    def relation(self, children):
+        return _RELATIONS[str(children[0])]
+
+    def claim(self, children):
+        _kw, label, lhs, relation, rhs = children
+        return st.Claim(label, lhs, relation, rhs, _span(children))
+
+    def congruence(self, children):
+        _kw, label, lhs, _sym, rhs, _mod, modulus = children
+        return st.Congruence(label, lhs, rhs, modulus, _span(children))
+
+    def chain(self, children):
+        _kw, label, start, *steps = children
+        return st.Chain(label, start, tuple(steps), _span(children))
+
+    def step(self, children):
+        expr = children[1]
+        rules = [c for c in children[3:] if isinstance(c, st.RuleRef)]
+        return st.Step(expr, tuple(rules), _span(children))
+
+    def identity(self, children):
+        label = children[1]
+        var, lower = children[3]
+        period = degree = None
+        for c in children[4:]:
+            if isinstance(c, tuple) and c[0] == "period":
+                period = c[1]
+            elif isinstance(c, tuple) and c[0] == "degree":
+                degree = c[1]
+        lhs, rhs = children[-3], children[-1]
+        return st.Identity(label, var, lower, period, degree, lhs, rhs, _span(children))
+
+    def from_bound(self, children):
+        return (str(children[0]), children[2])
+
+    def every_integer(self, children):
+        return (str(children[0]), None)
+
+    def claimed_period(self, children):
+        return ("period", children[0])
+
+    def claimed_degree(self, children):
+        return ("degree", children[0])
+
+    def witness(self, children):
+        label, lhs, rhs = children[1], children[2], children[4]
+        reps = tuple(c for c in children[6:] if isinstance(c, st.Representation))
+        return st.Witness(label, lhs, rhs, reps, _span(children))
+
+    def representation(self, children):
+        return st.Representation(children[0], children[2], _span(children))
+
+    def rule(self, children):
+        return st.RuleRef(str(children[0]), None, _tpos(children[0]))
+
+    def use_claim(self, children):
+        return st.RuleRef("claim", str(children[0]), _tpos(children[0]))
+
+    def use_lemma(self, children):
+        name, args = children[0], children[1] or []
+        return st.RuleRef("lemma", str(name), _tpos(name), tuple(args))
+
+    # -- lemmas --------------------------------------------------------------
+    def lemma(self, children):
+        name = str(children[1])
+        params = children[3]
+        body = children[6:]
+        conditions = tuple(c for a in body if isinstance(a, list) for c in a)
+        then = next(i for i, c in enumerate(body) if isinstance(c, Token) and c == "then")
+        lhs, rhs = body[then + 1], body[then + 3]
+        chains = tuple(c for c in body[then + 4:] if isinstance(c, st.Chain))
+        split = next((c for c in body if isinstance(c, st.Split)), None)
+        return st.Lemma(name, params, conditions, lhs, rhs, chains, split, _span(children))
+
+    def parameters(self, children):
+        return tuple(str(c) for c in children)
+
+    def assume(self, children):
+        return [c for c in children if isinstance(c, st.Condition)]
+
+    def plain_condition(self, children):
+        lhs, relation, rhs = children
+        return st.Condition(lhs, relation, rhs, None, _span(children))
+
+    def congruence_condition(self, children):
+        lhs, _sym, rhs, modulus = children
+        return st.Condition(lhs, "==", rhs, modulus, _span(children))
+
+    def split(self, children):
+        var, modulus = str(children[1]), children[3]
+        cases = tuple(c for c in children[4:] if isinstance(c, st.Case))
+        return st.Split(var, modulus, cases, _span(children))
+
+    def case(self, children):
+        chains = tuple(c for c in children[3:] if isinstance(c, st.Chain))
+        return st.Case(children[1], chains, _span(children))
+
+    def use(self, children):
+        return st.Use(str(children[1])[1:-1], _span(children))
+
+
+def _parse(text: str, start: str, limits: Limits):
+    if "\x00" in text:
+        i = text.index("\x00")
+        line = text.count("\n", 0, i) + 1
+        column = i - (text.rfind("\n", 0, i) + 1) + 1
+        raise SyntaxProblem("the text contains a NUL character", line, column)
+    parser = _parser(limits)
+    parser.options.transformer.tokens = 0
+    try:
+        result = parser.parse(text, start=start)
+    except UnexpectedInput as e:
+        raise _syntax_problem(e, text, start == "expr") from None
+    except VisitError as e:
+        if isinstance(e.orig_exc, CertificateError):
+            raise e.orig_exc from None
+        raise
+    finally:
+        parser.options.transformer.depth.clear()
+        parser.options.transformer.tokens = 0
+    return result
+
+
+def parse_expression(text: str, limits: Limits = DEFAULT_LIMITS) -> ex.Expr:
+    """Parse one expression (the language of `quasicert eval`)."""
+    return _parse(text, "expr", limits)
+
+
+def parse_certificate(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS) -> st.Certificate:
+    """Parse a whole certificate text."""
+    try:
+        statements = _parse(text, "certificate", limits)
+    except CertificateError as e:
+        e.source = e.source or name
+        raise
+    return st.Certificate(tuple(statements), name, text)
+
+
+# -- syntax errors in words ------------------------------------------------
+
+_WORDS = {
+    "INT": "a number", "NAME": "a name", "STRING": 'a quoted text "..."',
+    "ADDOP": "'+' or '-'", "MULOP": "'*' or '/'", "MINUS": "'-'",
+    "EQUALS": "'='", "LESS_EQUAL": "'<='", "GREATER_EQUAL": "'>='", "NOT_EQUAL": "'!='",
+    "LESS": "'<'", "GREATER": "'>'", "CONGRUENT": "'=='",
+    "$END": "the end of the text",
+}
+
+_STATEMENT_WORDS = {"title", "source", "let", "claim", "chain", "identity", "witness", "lemma", "use"}
+
+
+def _describe_terminal(name: str) -> str:
+    if name in _WORDS:
+        return _WORDS[name]
+    try:
+        term = _parser().get_terminal(name)
+        pattern = term.pattern
+        if pattern.type == "str":
+            return f"'{pattern.value}'"
+    except (KeyError, AttributeError):
+        pass
+    return name.lower()
+
+
+def _expected_words(expected) -> str:
+    words = sorted({_describe_terminal(t) for t in expected})
+    statements = [w for w in words if w.strip("'") in _STATEMENT_WORDS]
+    others = [w for w in words if w not in statements]
+    if statements:
+        others.append("a new statement (" + ", ".join(s.strip("'") for s in statements) + ")")
+    if len(others) > 1:
+        return ", ".join(others[:-1]) + " or " + others[-1]
+    return others[0] if others else "something else"
+
+
+def _keep(expected, expr_only: bool):
+    """Terminals worth naming; an expression alone has no statements or relations."""
+    names = {_terminal_name(t) for t in expected}
+    if expr_only:
+        kept = {t for t in names if t not in _NOT_IN_EXPRESSIONS and _describe_terminal(t) not in ("'..'", "'by'", "'mod'", "':'")}
+        return kept or names
+    return names
+
+
+def _terminal_name(t) -> str:
+    return t if isinstance(t, str) else getattr(t, "name", str(t))
+
+
+def _end_position(text: str) -> tuple[int, int]:
+    lines = text.split("\n")
+    return len(lines), len(lines[-1]) + 1
+
+
+_LANGUAGE_CHARACTERS = set("+-*/^()[],.=<>!:#\"_'\u2212\u00b7\u00d7\u2264\u2265\u2260\u2261 \t\r\n")
+_NOT_IN_EXPRESSIONS = {"EQUALS", "LESS_EQUAL", "GREATER_EQUAL", "NOT_EQUAL", "LESS", "GREATER",
+                       "CONGRUENT", "BY", "MOD", "TITLE", "SOURCE", "LET", "CLAIM", "CHAIN", "COLON",
+                       "IDENTITY", "WITNESS", "FOR", "ALL", "PERIOD", "DEGREE", "LEMMA", "USE",
+                       "THEN", "GIVEN", "SPLIT", "RESIDUE", "END"}
+
+
+def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> SyntaxProblem:
+    if isinstance(e, UnexpectedEOF) or getattr(e, "line", -1) in (-1, None):
+        line, column = _end_position(text)
+        expected = getattr(e, "expected", None) or []
+        return SyntaxProblem(f"the text ends too early: expected {_expected_words(_keep(expected, expr_only))}",
+                             line, column)
+    if isinstance(e, UnexpectedCharacters):
+        ch = text[e.pos_in_stream] if e.pos_in_stream < len(text) else ""
+        shown = f"'{ch}'" if ch.isprintable() and ch != " " else f"U+{ord(ch):04X}" if ch else "?"
+        msg = f"unexpected character {shown}"
+        allowed = [t for t in (getattr(e, "allowed", None) or ()) if t not in _NOT_IN_EXPRESSIONS or not expr_only]
+        if allowed and len(allowed) <= 6:
+            msg += f": expected {_expected_words(allowed)}"
+        elif ch and not (ch.isalnum() or ch in _LANGUAGE_CHARACTERS):
+            msg += " (it is not part of the language)"
+        return SyntaxProblem(msg, e.line, e.column, e.column + 1)
+    if isinstance(e, UnexpectedToken):
+        tok = e.token
+        if tok.type == "$END":
+            line, column = _end_position(text)
+            return SyntaxProblem(f"the text ends too early: expected {_expected_words(_keep(e.expected, expr_only))}",
+                                 line, column)
+        shown = str(tok)
+        if len(shown) > 30:
+            shown = shown[:27] + "..."
+        return SyntaxProblem(f"unexpected '{shown}': expected {_expected_words(_keep(e.expected, expr_only))}",
+                             e.line, e.column, (tok.end_column if tok.end_line == tok.line else None))
+    return SyntaxProblem(str(e), getattr(e, "line", None), getattr(e, "column", None))

@@ -1,0 +1,325 @@
+"""Restricted partition functions p_A(n) and their quasi-polynomial extension P_A(n).
+
+For positive integers A = [a_1, ..., a_d] (repeats allowed),
+
+    p_A(n) = #{(m_1, ..., m_d) in Z_{>=0}^d : m_1 a_1 + ... + m_d a_d = n},
+
+the coefficient of x^n in 1/prod_i (1 - x^(a_i)); p_A(n) = 0 for n < 0.  It
+agrees for n > -(a_1 + ... + a_d) with a quasi-polynomial P_A of degree d - 1
+and period lcm(A) (Beck & Robins, *Computing the Continuous Discretely*, ch. 1
+and 8), obtained from the partial fractions of the generating function:
+
+    P_A(n) = sum over b dividing some a_i of W_b(n),
+    W_b(n) = -sum_{xi primitive b-th root of 1} Res_{z=xi} z^(-n-1) / prod_i (1 - z^(a_i)).
+
+W_1 is the polynomial part (a Bernoulli-Barnes-type polynomial, built from
+Bernoulli numbers).  For b > 1 let I = {i : b | a_i}, e = |I|: W_b is a
+quasi-polynomial of period b and degree e - 1, and for pairwise coprime A the
+W_b with b | a_j add up to the Fourier-Dedekind sum s_{-n}(A \\ a_j; a_j).  At
+z = xi e^t the factors with b | a_i give Bernoulli series in t, the others
+give power series whose coefficients are polynomials in u_i = 1/(1 - xi^(a_i));
+each u_i is an element of the group algebra Q[Z/b] (see fourier_dedekind),
+and the sum over primitive roots is a Ramanujan sum.  So everything is exact
+rational arithmetic.
+
+OEIS A001399 (partitions into parts 1, 2, 3) and Sylvester's coin problem:
+
+>>> partitions(10, [1, 2, 3])
+Fraction(14, 1)
+>>> partitions(10**40, [4, 9, 11, 13]) == partitions_by_quasipolynomial(10**40, [4, 9, 11, 13])
+True
+>>> partitions_extended(-1, [1, 2])        # P(-1) = 0 below the threshold -(1+2)
+Fraction(0, 1)
+"""
+from __future__ import annotations
+
+from fractions import Fraction
+from itertools import accumulate
+from math import factorial, gcd, prod
+
+from .bernoulli import bernoulli_numbers
+from .elementary import as_integer, as_positive
+from ..foundation.errors import DomainError
+from .fourier_dedekind import cyclic_convolution
+
+__all__ = ["partitions", "partitions_extended", "partitions_by_table",
+           "partitions_by_quasipolynomial", "polynomial_part", "PartitionQuasiPolynomial",
+           "check_parts"]
+
+
+def check_parts(parts, what: str = "partitions") -> tuple[int, ...]:
+    if not isinstance(parts, (list, tuple)):
+        raise DomainError(f"the second argument of {what} must be a list of positive integers")
+    if not parts:
+        raise DomainError(f"the list of parts in {what} must not be empty")
+    return tuple(as_positive(a, f"each part in {what}") for a in parts)
+
+
+def partitions(n, parts) -> Fraction:
+    """p_A(n), choosing the cheaper of the table and the quasi-polynomial."""
+    n = as_integer(n, "the first argument of partitions")
+    parts = check_parts(parts)
+    if n < 0:
+        return Fraction(0)
+    if table_cost(n, parts) <= quasipolynomial_cost(parts):
+        return partitions_by_table(n, parts)
+    return partitions_by_quasipolynomial(n, parts)
+
+
+def partitions_extended(n, parts) -> Fraction:
+    """P_A(n): the quasi-polynomial that equals p_A(n) for n > -sum(A), at any integer n."""
+    n = as_integer(n, "the first argument of partitions_extended")
+    return PartitionQuasiPolynomial.of(check_parts(parts, "partitions_extended")).value(n)
+
+
+def table_cost(n: int, parts: tuple[int, ...]) -> int:
+    return (n + 1) * len(parts)
+
+
+_QP_PART_LIMIT = 10**7   # beyond this, listing a part's divisors is itself too slow
+
+
+def quasipolynomial_cost(parts: tuple[int, ...]) -> int:
+    d = len(parts)
+    if max(parts) > _QP_PART_LIMIT:
+        return 1 << 256
+    return 20 * sum(b * (d + 1) * sum(1 for a in parts if a % b == 0) ** 2
+                    for b in _divisors_of_parts(parts))
+
+
+def partitions_by_table(n, parts) -> Fraction:
+    """p_A(n) by the coefficient table of prod 1/(1 - x^a): O(n d) additions."""
+    n = as_integer(n)
+    if n < 0:
+        return Fraction(0)
+    table = [1] + [0] * n
+    for a in parts:
+        if a > n:
+            continue
+        # c[i] += c[i - a] along each residue class is a running sum
+        for r in range(a):
+            table[r::a] = accumulate(table[r::a])
+    return Fraction(table[n])
+
+
+def partitions_by_quasipolynomial(n, parts) -> Fraction:
+    """p_A(n) from P_A, for n >= 0 (0 for n < 0)."""
+    n = as_integer(n)
+    if n < 0:
+        return Fraction(0)
+    return PartitionQuasiPolynomial.of(tuple(parts)).value(n)
+
+
+def polynomial_part(parts) -> list[Fraction]:
+    """Coefficients c_0, ..., c_{d-1} of the polynomial part W_1(n) = sum c_j n^j."""
+    return list(PartitionQuasiPolynomial.of(check_parts(parts, "polynomial_part")).polynomial)
+
+
+def _divisors(m: int) -> list[int]:
+    small, large = [], []
+    i = 1
+    while i * i <= m:
+        if m % i == 0:
+            small.append(i)
+            if i * i != m:
+                large.append(m // i)
+        i += 1
+    return small + large[::-1]
+
+
+def _divisors_of_parts(parts) -> list[int]:
+    found = set()
+    for a in set(parts):
+        found.update(_divisors(a))
+    return sorted(found)
+
+
+def _moebius(m: int) -> int:
+    result, p = 1, 2
+    while p * p <= m:
+        if m % p == 0:
+            m //= p
+            if m % p == 0:
+                return 0
+            result = -result
+        p += 1
+    return -result if m > 1 else result
+
+
+def _ramanujan_sums(b: int) -> list[int]:
+    """c_b(m) = sum over primitive b-th roots xi of xi^m, for m in Z/b."""
+    by_gcd = {g: sum(_moebius(b // d) * d for d in _divisors(g)) for g in _divisors(b)}
+    return [by_gcd[gcd(m, b)] for m in range(b)]
+
+
+def _phi_polynomials(count: int) -> list[list[int]]:
+    """phi_0..phi_{count-1}: d^k/ds^k 1/(1 - w e^s) at s = 0 is phi_k(u), u = 1/(1 - w).
+
+    phi_0 = u and phi_{k+1} = (u^2 - u) phi_k'(u), since dU/ds = U^2 - U.
+    """
+    polys = [[0, 1]]
+    for _ in range(1, count):
+        p = polys[-1]
+        deriv = [j * p[j] for j in range(1, len(p))]
+        nxt = [0] * (len(deriv) + 2)
+        for j, c in enumerate(deriv):
+            nxt[j + 2] += c
+            nxt[j + 1] -= c
+        polys.append(nxt)
+    return polys
+
+
+class _Cyclic:
+    """An element of Q[Z/b]: integer entries over one common denominator."""
+
+    __slots__ = ("b", "nums", "den")
+
+    def __init__(self, b, nums, den):
+        self.b, self.nums, self.den = b, nums, den
+
+    @classmethod
+    def constant(cls, b, value: Fraction) -> "_Cyclic":
+        nums = [0] * b
+        nums[0] = value.numerator
+        return cls(b, nums, value.denominator)
+
+    def __mul__(self, other: "_Cyclic") -> "_Cyclic":
+        if self.b == 1:
+            return _Cyclic(1, [self.nums[0] * other.nums[0]], self.den * other.den)._tidy()
+        return _Cyclic(self.b, cyclic_convolution(self.nums, other.nums, self.b),
+                       self.den * other.den)._tidy()
+
+    def __add__(self, other: "_Cyclic") -> "_Cyclic":
+        g = gcd(self.den, other.den)
+        fs, fo = other.den // g, self.den // g
+        return _Cyclic(self.b, [x * fs + y * fo for x, y in zip(self.nums, other.nums)],
+                       self.den * fs)._tidy()
+
+    def scaled(self, factor: Fraction) -> "_Cyclic":
+        return _Cyclic(self.b, [x * factor.numerator for x in self.nums],
+                       self.den * factor.denominator)._tidy()
+
+    def _tidy(self) -> "_Cyclic":
+        g = self.den
+        for x in self.nums:
+            if g == 1:
+                break
+            g = gcd(g, x)
+        if g > 1:
+            self.nums = [x // g for x in self.nums]
+            self.den //= g
+        return self
+
+    def pair(self, weights: list[int], shift: int) -> Fraction:
+        """sum_s X(s) weights[(s - shift) mod b]."""
+        b = self.b
+        total = sum(x * weights[(s - shift) % b] for s, x in enumerate(self.nums) if x)
+        return Fraction(total, self.den)
+
+
+class PartitionQuasiPolynomial:
+    """P_A for one multiset A, with the waves W_b precomputed."""
+
+    _instances: dict = {}
+
+    @classmethod
+    def of(cls, parts: tuple[int, ...]) -> "PartitionQuasiPolynomial":
+        key = tuple(sorted(parts))
+        inst = cls._instances.get(key)
+        if inst is None:
+            if len(cls._instances) > 64:
+                cls._instances.clear()
+            inst = cls._instances[key] = cls(key)
+        return inst
+
+    def __init__(self, parts: tuple[int, ...]):
+        self.parts = parts
+        self.degree = len(parts) - 1
+        self.period = 1
+        for a in parts:
+            self.period = self.period * a // gcd(self.period, a)
+        self.waves = [self._wave(b) for b in _divisors_of_parts(parts)]
+        # the polynomial part in powers of n
+        b1 = self.waves[0]
+        self.polynomial = self._wave_polynomial(b1, 0)
+
+    def _wave(self, b: int):
+        parts = self.parts
+        inside = [a for a in parts if a % b == 0]
+        outside = [a for a in parts if a % b]
+        e = len(inside)
+        top = e - 1
+        bs = bernoulli_numbers(top)
+        # rational series prod_{b | a} beta(a t), beta(s) = s/(e^s - 1)
+        series = [Fraction(1)] + [Fraction(0)] * top
+        for a in inside:
+            factor = [bs[k] * Fraction(a ** k, factorial(k)) for k in range(top + 1)]
+            series = _series_mul_rational(series, factor, top)
+        cyc = [_Cyclic.constant(b, c) for c in series]
+        phis = _phi_polynomials(top + 1)
+        for a in outside:
+            bp = b // gcd(b, a)
+            nums = [0] * b
+            for r in range(bp):
+                nums[a * r % b] += bp - 1 - 2 * r
+            u = _Cyclic(b, nums, 2 * bp)._tidy()
+            powers = [u]
+            for _ in range(top):
+                powers.append(powers[-1] * u)
+            factor = []
+            for k in range(top + 1):
+                coeff = None
+                for j, c in enumerate(phis[k]):
+                    if c:
+                        term = powers[j - 1].scaled(Fraction(c * a ** k, factorial(k)))
+                        coeff = term if coeff is None else coeff + term
+                factor.append(coeff)
+            cyc = _series_mul_cyclic(cyc, factor, top)
+        scale = Fraction(-((-1) ** e), prod(inside))
+        return b, top, cyc, scale, _ramanujan_sums(b)
+
+    @staticmethod
+    def _wave_polynomial(wave, residue: int) -> list[Fraction]:
+        """Coefficients in n of W_b(n) for n = residue (mod b)."""
+        b, top, cyc, scale, ram = wave
+        inner = [cyc[k].pair(ram, residue) for k in range(top + 1)]
+        coeffs = []
+        for j in range(top + 1):
+            coeffs.append(scale * Fraction((-1) ** j, factorial(j)) * inner[top - j])
+        return coeffs
+
+    def value(self, n: int) -> Fraction:
+        total = Fraction(0)
+        for wave in self.waves:
+            coeffs = self._wave_polynomial(wave, n % wave[0])
+            acc = Fraction(0)
+            for c in reversed(coeffs):
+                acc = acc * n + c
+            total += acc
+        return total
+
+    def constituent(self, residue: int) -> list[Fraction]:
+        """The polynomial that P_A(n) equals for n = residue (mod period)."""
+        out = [Fraction(0)] * (self.degree + 1)
+        for wave in self.waves:
+            for j, c in enumerate(self._wave_polynomial(wave, residue % wave[0])):
+                out[j] += c
+        return out
+
+
+def _series_mul_rational(x, y, top):
+    out = [Fraction(0)] * (top + 1)
+    for i, xi in enumerate(x):
+        if xi:
+            for j in range(top + 1 - i):
+                out[i + j] += xi * y[j]
+    return out
+
+
+def _series_mul_cyclic(x, y, top):
+    out = [None] * (top + 1)
+    for i in range(top + 1):
+        for j in range(top + 1 - i):
+            term = x[i] * y[j]
+            out[i + j] = term if out[i + j] is None else out[i + j] + term
+    return out

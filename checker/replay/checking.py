@@ -1,0 +1,462 @@
+"""Replaying a certificate statement by statement.
+
+This module walks the statements, keeps the names and the verified
+equalities, asks the kernel for each judgement and writes what it finds into
+a Report.  The judgements themselves are ``kernel``'s; the words are here.
+"""
+from __future__ import annotations
+
+import difflib
+import time
+from fractions import Fraction
+from pathlib import Path
+
+from ..language import statements as st
+from ..foundation.errors import BudgetExceeded, CertificateError, CheckerBug, SyntaxProblem, UnreadableFile
+from ..kernel.evaluation import Evaluator
+from ..kernel.functions import REGISTRY
+from ..kernel.verdicts import check_step, compare, congruent, known_rule, nf_value
+from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..kernel.normal import Normaliser, text as nf_text
+from ..foundation.numbers import value_text
+from ..language.parsing import parse_certificate
+from .library import read_certificate_text, use_lemmas
+from .report import Failure, Report
+from .step_details import cited_rules, rule_details, short
+from ..kernel.rules import RULES, WHOLE_LINE_RULES
+
+__all__ = ["check_text", "check_file", "check_certificate"]
+
+_RELATION_WORDS = {"=": "=", "!=": "!=", "<": "<", "<=": "<=", ">": ">", ">=": ">="}
+
+
+class _Stop(Exception):
+    """Raised to end a replay at the first failure."""
+
+
+class _Facts:
+    """Verified equalities by label; a claim's normal forms are made only when a step uses it."""
+
+    def __init__(self, normaliser):
+        self.normaliser = normaliser
+        self.ready: dict = {}
+        self.pending: dict = {}
+
+    def add_nodes(self, label, lhs, rhs):
+        self.pending[label] = (lhs, rhs)
+
+    def add_normal_forms(self, label, lhs_nf, rhs_nf):
+        self.ready[label] = (lhs_nf, rhs_nf)
+
+    def __contains__(self, label):
+        if label in self.pending:
+            lhs, rhs = self.pending.pop(label)
+            try:
+                self.ready[label] = (self.normaliser.normal(lhs), self.normaliser.normal(rhs))
+            except CertificateError:
+                pass     # true, but not in a form a step can use
+        return label in self.ready
+
+    def __getitem__(self, label):
+        return self.ready[label]
+
+
+def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
+               keep_going: bool = False, paranoid: bool = False) -> Report:
+    """Check a certificate given as text; never raises for anything the text contains."""
+    start = time.perf_counter()
+    report = Report(name=name, text=text)
+    try:
+        cert = parse_certificate(text, name, limits)
+    except CertificateError as e:
+        report.failures.append(_from_error(e, exit_code=2))
+        report.seconds = time.perf_counter() - start
+        return report
+    _Replay(cert, report, limits, keep_going, paranoid).run()
+    report.seconds = time.perf_counter() - start
+    return report
+
+
+def check_certificate(cert: st.Certificate, limits: Limits = DEFAULT_LIMITS,
+                      keep_going: bool = False) -> Report:
+    report = Report(name=cert.name, text=cert.text)
+    start = time.perf_counter()
+    _Replay(cert, report, limits, keep_going).run()
+    report.seconds = time.perf_counter() - start
+    return report
+
+
+def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False,
+               paranoid: bool = False) -> Report:
+    """Check one certificate file."""
+    path = Path(path)
+    try:
+        text = read_certificate_text(path, limits)
+    except CertificateError as e:
+        report = Report(name=str(path))
+        report.failures.append(_from_error(e, exit_code=2))
+        return report
+    return check_text(text, str(path), limits, keep_going, paranoid)
+
+
+def _from_error(e: CertificateError, exit_code: int | None = None, source_note=None) -> Failure:
+    if exit_code is None:
+        exit_code = e.exit_code if isinstance(e, CheckerBug) else \
+            2 if isinstance(e, (BudgetExceeded, SyntaxProblem)) else 1
+    return Failure(e.line, e.column, e.message, kind=e.kind, end_column=e.end_column,
+                   exit_code=exit_code, source_note=source_note)
+
+
+class _Replay:
+    def __init__(self, cert: st.Certificate, report: Report, limits: Limits, keep_going: bool,
+                 paranoid: bool = False):
+        self.cert = cert
+        self.report = report
+        self.limits = limits
+        self.keep_going = keep_going
+        self.evaluator = Evaluator({}, limits, paranoid)
+        self.deadline = time.monotonic() + limits.seconds
+        self.normaliser = Normaliser(self.evaluator)
+        self.facts = _Facts(self.normaliser)   # verified equalities only
+        self.labels: dict = {}         # label -> line where it was given
+        self.source_note = None
+        self.lemmas: dict = {}         # name -> lemmas.LemmaInfo, verified
+        self.using: tuple = ()         # certificates being checked for `use`, outermost first
+        self.library: dict = {}        # resolved path -> (lemmas or the failure, files read)
+        self.read: dict = {}           # files read for `use`, path -> digest
+
+    def nested(self, cert: st.Certificate, report: Report) -> "_Replay":
+        """A replay of a certificate that this one uses, sharing its limits, deadline and library."""
+        replay = _Replay(cert, report, self.limits, False)
+        replay.library = self.library
+        replay.deadline = self.deadline
+        return replay
+
+    # -- driving -------------------------------------------------------------
+    def run(self):
+        try:
+            for stmt in self.cert.statements:
+                try:
+                    self._on_time(stmt)
+                    getattr(self, "_" + type(stmt).__name__)(stmt)
+                except _Stop:
+                    raise
+                except CertificateError as e:
+                    self._fail(_from_error(e.at(stmt), source_note=self.source_note))
+        except _Stop:
+            pass
+
+    def _on_time(self, node):
+        if time.monotonic() > self.deadline:
+            pos = node.pos
+            self.report.failures.append(Failure(
+                pos.line, pos.column, f"the check has run for more than {self.limits.seconds} s, the "
+                f"limit seconds = {self.limits.seconds} (raise it with --limit seconds=N); "
+                "nothing from here on was checked", kind="limit", exit_code=2))
+            raise _Stop()
+
+    def _fail(self, failure: Failure):
+        if failure.source_note is None:
+            failure.source_note = self.source_note
+        self.report.failures.append(failure)
+        if not self.keep_going:
+            raise _Stop()
+
+    def _ok(self):
+        self.report.checked += 1
+
+    def _value(self, node) -> Fraction:
+        return self.evaluator.number(node)
+
+    def _call(self, name, args):
+        return self.evaluator.call(name, args)
+
+    def _claim_label(self, label, stmt) -> bool:
+        if label is None:
+            return True
+        if label in self.labels:
+            self._fail(Failure(stmt.pos.line, stmt.pos.column,
+                               f"the label '{label}' is already used at line {self.labels[label]}",
+                               kind="error"))
+            return False
+        self.labels[label] = stmt.pos.line
+        return True
+
+    # -- statements ----------------------------------------------------------
+    def _Title(self, stmt):
+        if self.report.title is None:
+            self.report.title = stmt.text
+
+    def _Source(self, stmt):
+        self.source_note = stmt.text
+
+    def _Let(self, stmt):
+        if stmt.name in self.evaluator.env:
+            self._fail(Failure(stmt.pos.line, stmt.pos.column,
+                               f"'{stmt.name}' already has a value; names are given once", kind="error"))
+            return
+        if stmt.name in REGISTRY:
+            self._fail(Failure(stmt.pos.line, stmt.pos.column,
+                               f"'{stmt.name}' is the name of a function and cannot be given a value",
+                               kind="error"))
+            return
+        self.evaluator.env[stmt.name] = self.evaluator.value(stmt.expr)
+
+    def _Claim(self, stmt):
+        if not self._claim_label(stmt.label, stmt):
+            return
+        lhs = self._value(stmt.lhs)
+        rhs = self._value(stmt.rhs)
+        if compare(lhs, stmt.relation, rhs):
+            self._ok()
+            if stmt.relation == "=" and stmt.label:
+                self._remember_equality(stmt.label, stmt.lhs, stmt.rhs)
+            return
+        name = f"claim '{stmt.label}'" if stmt.label else "the claim"
+        rel = stmt.relation
+        if rel == "=":
+            details = [f"left side:  {value_text(lhs)}",
+                       f"right side: {value_text(rhs)}   (claimed)",
+                       f"difference (right - left): {value_text(rhs - lhs)}"]
+            message = f"{name} is false: the two sides differ"
+        else:
+            details = [f"left side:  {value_text(lhs)}", f"right side: {value_text(rhs)}"]
+            message = f"{name} is false: left {rel} right does not hold"
+        pos = stmt.rhs.pos
+        self._fail(Failure(pos.line, pos.column, message, details, kind="failed",
+                           end_column=pos.end_column if pos.end_line == pos.line else None,
+                           claimed=rhs, exact=lhs))
+
+    def _Congruence(self, stmt):
+        if not self._claim_label(stmt.label, stmt):
+            return
+        lhs = self._value(stmt.lhs)
+        rhs = self._value(stmt.rhs)
+        m = self._value(stmt.modulus)
+        if m == 0 or m.denominator != 1:
+            raise CertificateError(f"the modulus must be a nonzero integer, not {value_text(m)}").at(stmt.modulus)
+        if congruent(lhs, rhs, m):
+            self._ok()
+            return
+        name = f"claim '{stmt.label}'" if stmt.label else "the congruence"
+        pos = stmt.rhs.pos
+        q = (lhs - rhs) / m
+        self._fail(Failure(pos.line, pos.column, f"{name} is false: the sides are not congruent modulo {value_text(m)}",
+                           [f"left side:  {value_text(lhs)}", f"right side: {value_text(rhs)}",
+                            f"(left - right)/{value_text(m)} = {value_text(q)}, not an integer"],
+                           end_column=pos.end_column if pos.end_line == pos.line else None,
+                           claimed=rhs, exact=lhs))
+
+    def _Identity(self, stmt):
+        from ..kernel.quasipolynomial import check_identity
+        if not self._claim_label(stmt.label, stmt):
+            return
+        if stmt.var in self.evaluator.env or stmt.var in REGISTRY:
+            raise CertificateError(f"the variable '{stmt.var}' already names a value or a function; "
+                                   "use a fresh name").at(stmt)
+        lower = None if stmt.lower is None else self._whole(stmt.lower, "the lower bound")
+        period = None if stmt.period is None else self._whole(stmt.period, "a claimed period")
+        degree = None if stmt.degree is None else self._whole(stmt.degree, "a claimed degree")
+        r = check_identity(stmt.lhs, stmt.rhs, stmt.var, lower, self.evaluator, self.limits, period, degree)
+        v = stmt.var
+        summary = (f"degree <= {r.degree}, period dividing {r.period}"
+                   + (f", a quasi-polynomial from {v} = {r.threshold} on" if r.threshold is not None else ""))
+        if r.ok:
+            self._ok()
+            self.report.notes.append(
+                f"line {stmt.pos.line}: identity holds: {summary}; {r.points} values compared "
+                f"({v} = {r.start}..{r.start + r.points - 1})")
+            return
+        name = f"identity '{stmt.label}'" if stmt.label else "the identity"
+        pos = stmt.rhs.pos
+        if r.problem:
+            self._fail(Failure(pos.line, pos.column, f"{name}: {r.problem}", [f"inferred: {summary}"],
+                               end_column=pos.end_column if pos.end_line == pos.line else None))
+            return
+        self._fail(Failure(pos.line, pos.column, f"{name} fails at {v} = {r.counterexample}",
+                           [f"left side:  {value_text(r.left)}", f"right side: {value_text(r.right)}",
+                            f"difference (right - left): {value_text(r.right - r.left)}",
+                            f"inferred: {summary}; the first {v} where the sides differ among "
+                            f"{v} = {r.start}..{r.start + r.points - 1}"],
+                           end_column=pos.end_column if pos.end_line == pos.line else None,
+                           claimed=r.right, exact=r.left))
+
+    def _whole(self, node, what) -> int:
+        v = self._value(node)
+        if v.denominator != 1:
+            raise CertificateError(f"{what} must be an integer, not {value_text(v)}").at(node)
+        return v.numerator
+
+    def _Witness(self, stmt):
+        from ..mathematics.frobenius import frobenius as kernel_frobenius
+        from ..kernel.verdicts import frobenius_witness_problem, representation_problem
+        from ..mathematics.partitions import check_parts
+        if not self._claim_label(stmt.label, stmt):
+            return
+        lhs = stmt.lhs
+        if not (hasattr(lhs, "name") and lhs.name == "frobenius" and len(lhs.args) == 1):
+            raise CertificateError("a witness states frobenius([a1, ..., ad]) = g").at(lhs)
+        parts = check_parts(self.evaluator.value(lhs.args[0]), "frobenius")
+        g = self._whole(stmt.rhs, "the Frobenius number")
+        represented = set()
+        for rep in stmt.representations:
+            m = self._whole(rep.number, "a represented number")
+            why = representation_problem(_products(rep.combination), parts, m)
+            if why:
+                p = rep.pos
+                self._fail(Failure(p.line, p.column, f"the witness for frobenius is wrong: {m} = ...: {why}",
+                                   end_column=p.end_column if p.end_line == p.line else None))
+                return
+            represented.add(m)
+        ways = self._call("partitions", (Fraction(g), tuple(Fraction(a) for a in parts)))
+        problem = frobenius_witness_problem(parts, g, represented, ways)
+        pos = stmt.rhs.pos
+        if problem:
+            self._fail(Failure(pos.line, pos.column, problem, claimed=Fraction(g)))
+            return
+        # the witness proves it; the kernel's residue table must agree (second judgement)
+        exact = kernel_frobenius(parts)
+        if exact != g:
+            self._fail(Failure(pos.line, pos.column, f"the witness holds but the kernel computes "
+                               f"{value_text(exact)}: a checker bug, please report it", kind="checker bug",
+                               exit_code=3))
+            return
+        self._ok()
+
+    def _Lemma(self, stmt):
+        from .lemmas import LemmaCheck
+        if stmt.name in self.lemmas:
+            other = self.lemmas[stmt.name]
+            raise CertificateError(f"a lemma named '{stmt.name}' is already given ({other.origin}, line "
+                                   f"{other.line})").at(stmt)
+        check = LemmaCheck(self, stmt)
+        info = check.run()
+        if info is None:
+            return
+        self.lemmas[stmt.name] = info
+        self.report.checked += check.steps + 1
+        v = ", ".join(stmt.params)
+        cases = f" in {len(stmt.split.cases)} residue classes" if stmt.split else ""
+        self.report.notes.append(
+            f"line {stmt.pos.line}: lemma {stmt.name} holds for all integers {v} satisfying its "
+            f"assumptions: {check.steps} step{'s' if check.steps != 1 else ''} replayed symbolically{cases}; numeric second opinion "
+            f"at {check.count} instances ({check.summary})")
+
+    def _Use(self, stmt):
+        for info in use_lemmas(self, stmt):
+            if info.name in self.lemmas and self.lemmas[info.name] is not info:
+                other = self.lemmas[info.name]
+                raise CertificateError(f"the lemma '{info.name}' from {info.origin} clashes with the "
+                                       f"lemma of that name from {other.origin} (line {other.line})").at(stmt)
+            self.lemmas[info.name] = info
+        self._ok()
+
+    def _remember_equality(self, label, lhs_node, rhs_node):
+        self.facts.add_nodes(label, lhs_node, rhs_node)
+
+    def _Chain(self, stmt):
+        if not self._claim_label(stmt.label, stmt):
+            return
+        prev_nf = self.normaliser.normal(stmt.start)
+        prev_value = nf_value(prev_nf, self._call, self.limits)
+        start_nf, all_ok = prev_nf, True
+        for index, step in enumerate(stmt.steps, 1):
+            self._on_time(step)
+            ok, next_nf, next_value = self._step(stmt, index, step, prev_nf, prev_value)
+            all_ok = all_ok and ok
+            if next_nf is None:          # the line itself could not be read as a normal form
+                return
+            prev_nf, prev_value = next_nf, next_value
+        if all_ok and stmt.label:
+            self.facts.add_normal_forms(stmt.label, start_nf, prev_nf)
+
+    def _step(self, chain, index, step, prev_nf, prev_value):
+        where = f"step {index} of the chain at line {chain.pos.line}"
+        facts = self.facts
+        for ref in step.rules:
+            if ref.name == "lemma":
+                facts = self._lemma_fact(ref, where, facts)
+                if facts is None:
+                    return False, None, None
+                continue
+            if not known_rule(ref.name):
+                near = difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
+                hint = f" (did you mean {near[0]}?)" if near else ""
+                self._fail(Failure(ref.pos.line, ref.pos.column, f"{where}: unknown rule '{ref.name}'{hint}",
+                                   ["`quasicert rules` lists the rules"], kind="error",
+                                   end_column=ref.pos.end_column))
+                return False, None, None
+        self.normaliser.positions = {}
+        next_nf = self.normaliser.normal(step.expr)
+        positions = self.normaliser.positions
+        next_value = nf_value(next_nf, self._call, self.limits)
+        rules = [(r.name, r.label) if r.name != "lemma" else ("claim", f"lemma {r.label}")
+                 for r in step.rules]
+        verdict = check_step(prev_nf, next_nf, rules, self._call, facts, self.limits)
+        values_ok = next_value == prev_value
+        if verdict.rule_ok and values_ok:
+            self._ok()
+            return True, next_nf, next_value
+        self._fail(self._step_failure(where, step, rules, verdict, values_ok, prev_nf, next_nf,
+                                      prev_value, next_value, positions))
+        return False, next_nf, next_value
+
+    def _lemma_fact(self, ref, where, facts):
+        """The facts with the lemma `ref` instantiated at numbers, or None after a failure."""
+        from ..kernel.assumptions import Assumptions
+        from .lemmas import Scope, instantiate
+        info = self.lemmas.get(ref.label)
+        if info is None:
+            from .lemmas import _unknown_lemma
+            self._fail(_unknown_lemma(ref, where, self.lemmas))
+            return None
+        try:
+            fact = instantiate(self.evaluator, info, ref, Assumptions(()), {})
+        except CertificateError as e:
+            self._fail(Failure(ref.pos.line, ref.pos.column, f"{where} does not follow: {e.message}",
+                               kind="failed", end_column=ref.pos.end_column))
+            return None
+        return Scope(facts, {f"lemma {ref.label}": fact})
+
+    def _step_failure(self, where, step, rules, verdict, values_ok, prev_nf, next_nf,
+                      prev_value, next_value, positions) -> Failure:
+        cited = cited_rules(rules)
+        pos = step.expr.pos
+        line, column, end = pos.line, pos.column, pos.end_column if pos.end_line == pos.line else None
+        details = []
+        if not verdict.rule_ok:
+            message = f"{where} does not follow by {cited}"
+            more, closest, mark = rule_details(cited, verdict, next_nf, positions, nf_text)
+            details += more
+            if mark is not None:
+                line, column, end = mark
+            if values_ok:
+                details.append(f"value check: passed (both lines are {short(value_text(prev_value))})")
+            else:
+                details.append("value check: failed too")
+        else:
+            message = f"{where}: the rule gives this line but the values differ (a checker bug: please report it)"
+        if not values_ok:
+            details += [f"exact value (previous line): {short(value_text(prev_value))}",
+                        f"claimed value (this line):   {short(value_text(next_value))}",
+                        f"difference (claimed - exact): {short(value_text(next_value - prev_value))}"]
+        return Failure(line, column, message, details, kind="failed", end_column=end,
+                       claimed=next_value, exact=prev_value)
+
+
+def _products(node) -> list:
+    """A sum of products of whole numbers, as lists of factors (signs become negative factors).
+
+    Anything else (a name, a call, a division) is written as [-1] so that the
+    kernel refuses it with a reason.
+    """
+    from ..language import expressions as ex
+    terms = node.terms if isinstance(node, ex.Sum) else ((1, node),)
+    out = []
+    for sign, term in terms:
+        factors = term.factors if isinstance(term, ex.Product) else ((False, term),)
+        if sign < 0 or any(divide or not isinstance(f, ex.Num) for divide, f in factors):
+            out.append([-1])
+        else:
+            out.append([f.value for _, f in factors])
+    return out

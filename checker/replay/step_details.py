@@ -1,0 +1,48 @@
+"""Words for a chain step that does not follow: the rules as cited and what they would give.
+
+Shared by the replay of numeric chains (``checking``) and of lemmas (``lemmas``).
+"""
+from __future__ import annotations
+
+from ..foundation.numbers import atom_text
+from ..kernel.normal import atoms
+
+__all__ = ["cited_rules", "rule_details", "closest_candidate", "short"]
+
+
+def cited_rules(rules) -> str:
+    """The rules of a step as written: `reduce, claim q`, `lemma two_over_odd`."""
+    return ", ".join(n if n != "claim" else (l if l.startswith("lemma ") else f"claim {l}") for n, l in rules)
+
+
+def rule_details(cited: str, verdict, nxt, positions: dict, render):
+    """(detail lines, the closest line the rules give, the position of the first call of `nxt`
+    that they do not give or None) for a step whose rules do not give the next line."""
+    details = [verdict.problem] if verdict.problem else []
+    for atom, reason in verdict.refusals[:4]:
+        target = f" to {atom_text(atom)}" if atom else ""
+        details.append(f"{cited} cannot be applied{target}: {reason}")
+    closest = closest_candidate(verdict.candidates, nxt)
+    mark = None
+    if closest is not None:
+        details.append(f"{cited} gives: {short(render(closest))}")
+        wrong = [a for a in atoms(nxt) - atoms(closest) if a in positions]
+        if wrong:
+            p = positions[sorted(wrong, key=lambda a: (positions[a].line, positions[a].column))[0]]
+            mark = (p.line, p.column, p.end_column if p.end_line == p.line else None)
+    return details, closest, mark
+
+
+def closest_candidate(candidates, target):
+    """The candidate normal form that differs from `target` in the fewest terms."""
+    best, score = None, None
+    for c in candidates:
+        s = len(set(c.items()) ^ set(target.items()))
+        if score is None or s < score:
+            best, score = c, s
+    return best
+
+
+def short(s: str, width: int = 300) -> str:
+    """`s`, or its two ends around a count of what was left out when it is longer than `width`."""
+    return s if len(s) <= width else s[: width // 2] + f" ...({len(s) - width} characters)... " + s[-width // 2:]

@@ -1,0 +1,27 @@
+"""The exact value of an expression given as text: parse it, then evaluate it in the kernel."""
+from __future__ import annotations
+
+from fractions import Fraction
+
+from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..kernel.evaluation import Evaluator
+from ..language.parsing import parse_expression
+
+__all__ = ["evaluate", "evaluate_value"]
+
+
+def evaluate_value(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS):
+    """Value of an expression text: a Fraction, or a tuple for a list."""
+    return Evaluator(env, limits).value(parse_expression(text, limits))
+
+
+def evaluate(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS) -> Fraction:
+    """The exact value of an expression text, as a Fraction.
+
+    >>> evaluate("dedekind(5, 17)")                # Rademacher & Grosswald's tables
+    Fraction(1, 17)
+    >>> evaluate("-2^2"), evaluate("2^3^2")
+    (Fraction(-4, 1), Fraction(512, 1))
+    """
+    expr = parse_expression(text, limits)
+    return Evaluator(env, limits).number(expr)

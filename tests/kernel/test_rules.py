@@ -1,0 +1,207 @@
+"""Every rule both ways: valid instances are accepted (and keep the exact value),
+invalid ones are refused with the side condition that failed."""
+from fractions import Fraction
+from math import gcd
+
+import pytest
+from hypothesis import assume, given, strategies as st
+
+from checker import check_text
+from checker.mathematics.dedekind import dedekind, reciprocity_term
+from checker.foundation.errors import RuleRefused
+from checker.kernel.evaluation import Evaluator
+from checker.kernel.verdicts import nf_value
+from checker.foundation.limits import DEFAULT_LIMITS
+from checker.kernel.normal import text as nf_text
+from checker.kernel.rules import RULES
+
+F = Fraction
+small = st.integers(-200, 200)
+positive = st.integers(1, 200)
+
+
+def rewrite(rule, atom, target=()):
+    return RULES[rule].rewrite(atom, set(target), DEFAULT_LIMITS)
+
+
+def value(nf):
+    return nf_value(nf, Evaluator().call)
+
+
+def refusal(rule, atom, target=()):
+    with pytest.raises(RuleRefused) as info:
+        rewrite(rule, atom, target)
+    return info.value.message
+
+
+def chain(start, line, rules):
+    return check_text(f"chain {start}\n  = {line}    by {rules}\n")
+
+
+# -- valid instances keep the exact value -------------------------------------
+
+@given(small, positive)
+def test_reduce_keeps_value(h, k):
+    assume(not 0 <= h < k)
+    (r,) = rewrite("reduce", ("dedekind", (F(h), F(k))))
+    assert value(r) == dedekind(h, k)     # definition: s depends on h mod k only
+    assert chain(f"dedekind({h}, {k})", f"dedekind({h % k}, {k})", "reduce").ok
+
+
+@given(positive, positive)
+def test_reciprocity_keeps_value(h, k):
+    assume(gcd(h, k) == 1)
+    (r,) = rewrite("reciprocity", ("dedekind", (F(h), F(k))))
+    assert value(r) == dedekind(h, k)     # Dedekind reciprocity
+    assert chain(f"dedekind({h}, {k})", f"{reciprocity_term(h, k)} - dedekind({k}, {h})", "reciprocity").ok
+
+
+@given(small, positive)
+def test_negate_keeps_value(h, k):
+    (r,) = rewrite("negate", ("dedekind", (F(h), F(k))))
+    assert value(r) == dedekind(h, k)
+    assert chain(f"dedekind({h}, {k})", f"-dedekind({-h}, {k})", "negate").ok
+
+
+@given(small, st.integers(2, 200), st.integers(-3, 3))
+def test_inverse_keeps_value(h, k, shift):
+    assume(gcd(h, k) == 1)
+    inv = pow(h, -1, k) + shift * k
+    assert chain(f"dedekind({h}, {k})", f"dedekind({inv}, {k})", "inverse").ok
+
+
+@given(small, positive, st.integers(2, 9))
+def test_common_factor_both_directions(h, k, g):
+    assert chain(f"dedekind({g * h}, {g * k})", f"dedekind({h}, {k})", "common_factor").ok
+    assert chain(f"dedekind({h}, {k})", f"dedekind({g * h}, {g * k})", "common_factor").ok
+
+
+# pairwise coprime triples, drawn directly (filtering three random integers trips Hypothesis's
+# health check now and then)
+_TRIPLES = [(a, b, c) for a in range(1, 41) for b in range(1, 41) for c in range(1, 41)
+            if gcd(a, b) == gcd(b, c) == gcd(a, c) == 1]
+
+
+@given(st.sampled_from(_TRIPLES))
+def test_three_term_keeps_value(triple):
+    a, b, c = triple
+    x = b * pow(c, -1, a) % a if a > 1 else 0
+    y = c * pow(a, -1, b) % b if b > 1 else 0
+    z = a * pow(b, -1, c) % c if c > 1 else 0
+    assume(len({(x, a), (y, b), (z, c)}) == 3)
+    rhs = F(-1, 4) + F(a * a + b * b + c * c, 12 * a * b * c)
+    report = chain(f"dedekind({x}, {a})", f"{rhs} - dedekind({y}, {b}) - dedekind({z}, {c})", "three_term")
+    assert report.ok, report.failure.details
+
+
+@given(small, st.integers(1, 60))
+def test_unfold_keeps_value(h, k):
+    (r,) = rewrite("unfold", ("dedekind", (F(h), F(k))))
+    assert value(r) == dedekind(h, k)
+
+
+@given(st.sampled_from([1, 3, 5]), st.integers(1, 15), st.integers(1, 15))
+def test_apostol_reciprocity_keeps_value(p, h, k):
+    assume(gcd(h, k) == 1)
+    from checker.mathematics.dedekind import generalized_dedekind
+    (r,) = rewrite("reciprocity", ("generalized_dedekind", (F(p), F(h), F(k))))
+    assert value(r) == generalized_dedekind(p, h, k)
+
+
+@given(st.integers(-50, 50), st.lists(st.integers(-30, 30), min_size=0, max_size=3), st.integers(1, 12))
+def test_reduce_fourier_dedekind_keeps_value(n, parts, b):
+    assume(all(gcd(a, b) == 1 for a in parts))
+    from checker.mathematics.fourier_dedekind import fourier_dedekind
+    atom = ("fourier_dedekind", (F(n), tuple(F(a) for a in parts), F(b)))
+    (r,) = rewrite("reduce", atom)
+    assert value(r) == fourier_dedekind(n, parts, b)
+
+
+# -- invalid instances are refused with the reason ----------------------------
+
+@given(positive, positive)
+def test_reciprocity_refuses_non_coprime(h, k):
+    g = gcd(h, k)
+    assume(g > 1)
+    assert refusal("reciprocity", ("dedekind", (F(h), F(k)))) == \
+        f"reciprocity needs coprime h and k, but gcd({h}, {k}) = {g}"
+
+
+@given(st.integers(-200, 0), positive)
+def test_reciprocity_refuses_non_positive(h, k):
+    assert refusal("reciprocity", ("dedekind", (F(h), F(k)))) == \
+        f"reciprocity needs h >= 1 and k >= 1, but h = {h} (use reduce or negate first)"
+
+
+def test_reciprocity_refuses_even_apostol_order():
+    assert refusal("reciprocity", ("generalized_dedekind", (F(2), F(3), F(5)))) == \
+        "Apostol's reciprocity needs an odd order p >= 1, not 2"
+
+
+@given(small, st.integers(2, 200))
+def test_inverse_refuses_non_coprime(h, k):
+    g = gcd(h, k)
+    assume(g > 1)
+    assert refusal("inverse", ("dedekind", (F(h), F(k)))) == f"inverse needs h coprime to k, but gcd({h}, {k}) = {g}"
+
+
+@given(st.integers(0, 100), st.integers(2, 100))
+def test_reduce_refuses_an_unreduced_target(h, k):
+    h %= k
+    msg = refusal("reduce", ("dedekind", (F(h), F(k))), [("dedekind", (F(h + 1), F(k)))])
+    assert msg.startswith(f"dedekind({h}, {k}) is already reduced")
+
+
+def test_common_factor_refuses_without_factor():
+    assert refusal("common_factor", ("dedekind", (F(5), F(17)))).startswith(
+        "dedekind(5, 17) has no common factor to cancel")
+
+
+def test_three_term_refuses_non_coprime_triples():
+    target = [("dedekind", (F(1), F(4))), ("dedekind", (F(1), F(6)))]
+    msg = refusal("three_term", ("dedekind", (F(1), F(5))), target)
+    assert msg == "the three-term law needs pairwise coprime a, b, c, but gcd(4, 6) = 2"
+
+
+def test_three_term_refuses_with_only_one_companion():
+    # found by the operator/rule mutation test: one other sum used to crash the rule
+    msg = refusal("three_term", ("dedekind", (F(3), F(5))), [("dedekind", (F(6), F(7)))])
+    assert msg.endswith("but the next line has no two other dedekind sums")
+
+
+def test_three_term_refuses_wrong_first_argument():
+    target = [("dedekind", (F(5), F(7))), ("dedekind", (F(2), F(9)))]
+    msg = refusal("three_term", ("dedekind", (F(3), F(5))), target)
+    assert msg == "with a, b, c = 5, 7, 9 the law needs s(c a*, b) with first argument = 6 (mod 7), not 5"
+
+
+def test_unfold_refuses_over_budget():
+    from checker.foundation.errors import BudgetExceeded
+    with pytest.raises(BudgetExceeded) as info:
+        rewrite("unfold", ("dedekind", (F(1), F(10**6))))
+    assert info.value.message.startswith("unfolding dedekind(h, 1000000) needs 1000000 terms, over the limit unfold-terms")
+
+
+def test_rules_refuse_wrong_functions_and_non_integers():
+    assert refusal("reciprocity", ("bernoulli", (F(2),))) == "it does not apply to bernoulli"
+    assert refusal("reduce", ("dedekind", (F(1, 2), F(3)))) == "dedekind needs an integer h, not 1/2"
+    assert refusal("negate", ("dedekind", (F(1), F(0)))) == "dedekind(h, k) needs k >= 1, not 0"
+
+
+# -- wrong targets and wrong constants ---------------------------------------
+
+@given(positive, positive, st.integers(1, 50))
+def test_reciprocity_with_a_wrong_constant_fails_the_step(h, k, delta):
+    assume(gcd(h, k) == 1)
+    wrong = reciprocity_term(h, k) + F(delta, 7)
+    report = chain(f"dedekind({h}, {k})", f"{wrong} - dedekind({k}, {h})", "reciprocity")
+    assert not report.ok
+    assert "value check: failed too" in report.failure.details
+    assert report.failure.details[0] == f"reciprocity gives: {nf_text(rewrite('reciprocity', ('dedekind', (F(h), F(k))))[0])}"
+
+
+@given(positive, st.integers(2, 100))
+def test_reduce_to_a_wrong_residue_fails_the_step(h, k):
+    report = chain(f"dedekind({h + k}, {k})", f"dedekind({(h + 1) % k + k * 3}, {k})", "reduce")
+    assume((h + 1 - h) % k)
+    assert not report.ok

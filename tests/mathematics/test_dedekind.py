@@ -1,0 +1,182 @@
+"""Dedekind sums against python-flint, the definition, and published laws."""
+import random
+from fractions import Fraction
+from math import gcd
+
+import flint
+import pytest
+from hypothesis import given, strategies as st
+
+from checker.mathematics.dedekind import (dedekind, dedekind_along_euclid, dedekind_by_definition,
+                              dedekind_rademacher, generalized_dedekind,
+                              generalized_dedekind_by_definition, reciprocity_term)
+from checker.mathematics.elementary import sawtooth
+from checker.mathematics.bernoulli import periodic_bernoulli
+from checker.foundation.errors import DomainError
+from conftest import exact, flint_fraction
+
+
+def random_coprime_pair(rng, digits):
+    while True:
+        k = rng.randrange(10 ** (digits - 1), 10 ** digits) if digits > 1 else rng.randrange(2, 10)
+        h = rng.randrange(-k, 2 * k)
+        if gcd(h, k) == 1:
+            return h, k
+
+
+@pytest.mark.parametrize("digits", [1, 2, 3, 5, 10, 20, 50, 100])
+def test_dedekind_matches_python_flint(digits):
+    # python-flint fmpq.dedekind_sum as an independent reference
+    rng = random.Random(digits)
+    for _ in range(600):
+        h, k = random_coprime_pair(rng, digits)
+        exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
+
+
+def test_dedekind_matches_python_flint_beyond_lehmer_threshold():
+    # python-flint; sizes where the batched (Lehmer) quotient path is used
+    rng = random.Random(7)
+    for digits in (150, 300, 1000):
+        for _ in range(40):
+            h, k = random_coprime_pair(rng, digits)
+            exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
+
+
+@pytest.mark.parametrize("use_gmpy2", [True, False])
+def test_both_inverse_paths_against_python_flint(monkeypatch, use_gmpy2):
+    # python-flint; the modular inverse from gmpy2, or from the cofactors carried along
+    import checker.mathematics.dedekind as module
+    if not use_gmpy2:
+        monkeypatch.setattr(module, "_gmp_invert", None)
+    elif module._gmp_invert is None:
+        pytest.skip("gmpy2 is not installed")
+    rng = random.Random(17)
+    for digits in (1, 3, 30, 140, 141, 400, 1200):
+        for _ in range(30):
+            h, k = random_coprime_pair(rng, digits)
+            exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
+
+
+def test_dedekind_non_coprime_and_all_h_against_flint():
+    # python-flint accepts any h and k >= 1
+    for k in range(1, 80):
+        for h in range(-90, 90):
+            exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
+
+
+def test_published_values():
+    # Rademacher & Grosswald, Dedekind Sums (1972): s(1, k) = (k-1)(k-2)/(12k)
+    for k in range(1, 500):
+        exact(dedekind(1, k), Fraction((k - 1) * (k - 2), 12 * k))
+    # Rademacher & Grosswald, ch. 3: s(2, k) = (k-1)(k-5)/(24k) for odd k
+    for k in range(1, 500, 2):
+        exact(dedekind(2, k), Fraction((k - 1) * (k - 5), 24 * k))
+    exact(dedekind(5, 17), Fraction(1, 17))   # from memory, re-derived by the definition below
+    exact(dedekind_by_definition(5, 17), Fraction(1, 17))
+
+
+def test_twelve_hk_congruence():
+    # Rademacher & Grosswald, ch. 3: 12 h k s(h, k) = h^2 + 1 (mod k) for coprime h, k
+    rng = random.Random(3)
+    for _ in range(3000):
+        h, k = random_coprime_pair(rng, rng.randint(1, 40))
+        v = 12 * h * k * dedekind(h, k)
+        assert v.denominator == 1
+        assert (v.numerator - h * h - 1) % k == 0
+
+
+@given(st.integers(-300, 300), st.integers(1, 150))
+def test_fast_equals_definition(h, k):
+    # the definition summed term by term
+    assert dedekind(h, k) == dedekind_by_definition(h, k)
+
+
+@given(st.integers(-10**30, 10**30), st.integers(1, 10**30))
+def test_odd_in_h(h, k):
+    # s(-h, k) = -s(h, k)   (Rademacher & Grosswald, ch. 3)
+    assert dedekind(-h, k) == -dedekind(h, k)
+
+
+@given(st.integers(1, 10**40), st.integers(2, 10**40))
+def test_inverse_invariance(h, k):
+    # s(h', k) = s(h, k) when h h' = 1 (mod k)   (Rademacher & Grosswald, ch. 3)
+    if gcd(h, k) == 1:
+        assert dedekind(pow(h, -1, k), k) == dedekind(h, k)
+
+
+@given(st.integers(1, 10**60), st.integers(1, 10**60))
+def test_reciprocity(h, k):
+    # Dedekind reciprocity law
+    if gcd(h, k) == 1:
+        assert dedekind(h, k) + dedekind(k, h) == Fraction(-1, 4) + (Fraction(h, k) + Fraction(k, h) + Fraction(1, h * k)) / 12
+        assert reciprocity_term(h, k) == dedekind(h, k) + dedekind(k, h)
+
+
+@given(st.integers(1, 10**80), st.integers(1, 10**80))
+def test_along_euclid_agrees_with_fast_path(h, k):
+    values = dedekind_along_euclid(h, k)
+    for (a, b), v in list(values.items())[:30]:
+        assert dedekind(a, b) == v
+
+
+def _dr_definition(h, k, x, y):
+    return sum(sawtooth(h * (j + y) / k + x) * sawtooth((j + y) / Fraction(k)) for j in range(k))
+
+
+fractions_small = st.fractions(min_value=-3, max_value=3, max_denominator=7)
+
+
+@given(st.integers(-20, 20), st.integers(1, 25), fractions_small, fractions_small)
+def test_dedekind_rademacher_matches_definition(h, k, x, y):
+    # Rademacher (1964), definition of s(h, k; x, y), summed with Fractions
+    assert dedekind_rademacher(h, k, x, y) == _dr_definition(h, k, Fraction(x), Fraction(y))
+
+
+def test_dedekind_rademacher_reduces_to_dedekind():
+    # Rademacher (1964): s(h, k; 0, 0) = s(h, k)
+    for k in range(1, 40):
+        for h in range(-5, 40):
+            assert dedekind_rademacher(h, k, 0, 0) == dedekind(h, k)
+
+
+@given(st.integers(1, 6), st.integers(-30, 30), st.integers(1, 30))
+def test_generalized_dedekind_matches_definition(p, h, k):
+    # Apostol (1950): s_p(h, k) = sum_{j mod k} (j/k) Bbar_p(hj/k), with Fractions
+    expected = sum(Fraction(j, k) * periodic_bernoulli(p, Fraction(h * j, k)) for j in range(k))
+    assert generalized_dedekind(p, h, k) == expected
+    assert generalized_dedekind_by_definition(p, h, k) == expected
+
+
+def test_generalized_first_order_is_dedekind():
+    # Apostol (1950): s_1(h, k) = s(h, k)
+    for k in range(1, 40):
+        for h in range(0, 40):
+            assert generalized_dedekind(1, h, k) == dedekind(h, k)
+
+
+def test_apostol_reciprocity_odd_orders():
+    # Apostol (1950), Theorem 1: for odd p and coprime h, k >= 1,
+    # (p+1)(h k^p s_p(h,k) + k h^p s_p(k,h)) = sum_{j=0}^{p+1} C(p+1,j)(-1)^j B_j B_{p+1-j} h^j k^{p+1-j} + p B_{p+1}
+    from math import comb
+    from checker.mathematics.bernoulli import bernoulli
+    for p in (1, 3, 5):
+        for h in range(1, 12):
+            for k in range(1, 12):
+                if gcd(h, k) != 1:
+                    continue
+                lhs = (p + 1) * (h * k ** p * generalized_dedekind(p, h, k) + k * h ** p * generalized_dedekind(p, k, h))
+                rhs = sum(comb(p + 1, j) * (-1) ** j * bernoulli(j) * bernoulli(p + 1 - j) * h ** j * k ** (p + 1 - j)
+                          for j in range(p + 2)) + p * bernoulli(p + 1)
+                assert lhs == rhs, (p, h, k)
+
+
+@pytest.mark.parametrize("args, message", [
+    ((1, 0), "the second argument of dedekind must be a positive integer, not 0"),
+    ((1, -3), "the second argument of dedekind must be a positive integer, not -3"),
+    ((Fraction(1, 2), 3), "the first argument of dedekind must be an integer, not 1/2"),
+    ((1.5, 3), "the first argument of dedekind must be an integer, not a floating-point number (quasicert is exact: write a fraction)"),
+])
+def test_domain_errors(args, message):
+    with pytest.raises(DomainError) as info:
+        dedekind(*args)
+    assert info.value.message == message

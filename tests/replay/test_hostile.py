@@ -1,0 +1,258 @@
+"""Hostile and malformed input: every case ends in a verdict, never a traceback or a hang."""
+import io
+import time
+from pathlib import Path
+
+import pytest
+from hypothesis import given, settings, strategies as st
+
+from checker import check_file, check_text
+from checker.interfaces.cli import main
+from checker.foundation.limits import Limits
+
+KINDS = {"failed", "error", "syntax error", "limit", "unreadable"}   # never "checker bug"
+
+
+def verdict(report):
+    """Every failure is one of the known kinds, with a position when the text has one."""
+    for f in report.failures:
+        assert f.kind in KINDS, f
+        assert isinstance(f.message, str) and f.message
+        if f.kind != "unreadable" or f.line is not None:
+            assert f.line is None or f.line >= 1
+    return report
+
+
+@settings(max_examples=300)
+@given(st.binary(max_size=400))
+def test_random_bytes(tmp_path_factory, data):
+    path = tmp_path_factory.mktemp("fuzz") / "x.qcert"
+    path.write_bytes(data)
+    verdict(check_file(path))
+
+
+@settings(max_examples=300)
+@given(st.text(max_size=300))
+def test_random_text(text):
+    report = verdict(check_text(text))
+    for f in report.failures:
+        assert f.line is not None and f.column is not None
+
+
+TOKENS = ["claim", "chain", "let", "title", "source", "=", "==", "mod", "by", "reduce",
+          "reciprocity", "value", "arithmetic", "unfold", "negate", "inverse", "common_factor",
+          "three_term", "claim q", "q:", "dedekind(", "partitions(", "bernoulli(", "frobenius(",
+          "fourier_dedekind(", "sum(j = 0 .. ", "generalized_dedekind(", "floor(", ")", "(", "[",
+          "]", ",", "+", "-", "*", "/", "^", "1", "0", "17", "5", "-3", "10^10^10", "\n", "# c\n",
+          '"x"', "x", "j", "<", "<=", "!=", "2^64", "1/0", "identity", "for", "all", "n", ">=", ":",
+          "period", "degree", "witness", "periodic(", "constituents(", "lattice_points(", "[[0, 0], [1, 2]]",
+          "interior_lattice_points(", "lattice_points_in(", "partitions_extended(", "sawtooth(", "n/2",
+          "[1, 2]", "[]", "[[]]", "t", "frobenius([6, 9, 20]) = 43:", "44 = 4*6 + 20",
+          "lemma", "lemma f(k):", "given", "k >= 1", "k == 1 mod 2", "gcd(k, 2) = 1", "then", "end",
+          "split k mod 2", "residue 1:", "k", "h", "dedekind(2, k)", "lemma f(k)", "use", '"dedekind-lemmas"',
+          '"../x.qcert"', "k/2", "1/(k - 3)", "floor(k/2)", "mod(k, 3)"]
+
+
+@settings(max_examples=400, deadline=None)
+@given(st.lists(st.sampled_from(TOKENS), max_size=40))
+def test_grammar_aware_token_soup(tokens):
+    start = time.perf_counter()
+    verdict(check_text(" ".join(tokens)))
+    assert time.perf_counter() - start < 20
+
+
+def _lines(n, line):
+    return "".join(line for _ in range(n))
+
+
+HOSTILE = [
+    ("empty file", "", None),
+    ("only comments", "# nothing\n# here\n", None),
+    ("NUL byte", "claim 1 = 1\x00\n", "syntax error"),
+    ("python code", "__import__('os').system('echo hi')\n", "syntax error"),
+    ("python lambda", "claim (lambda: 1)() = 1\n", "syntax error"),
+    ("10,000 nested parentheses", "claim " + "(" * 10_000 + "1" + ")" * 10_000 + " = 1\n", None),
+    ("deeply nested calls", "claim " + "floor(" * 5000 + "1" + ")" * 5000 + " = 1\n", "limit"),
+    ("exponent tower", "claim 10^10^10 = 1\n", "limit"),
+    ("huge binomial", "claim binomial(10^9, 10^8) = 1\n", "limit"),
+    ("huge Bernoulli index", "claim bernoulli(10^12) = 0\n", "limit"),
+    ("unfold of a giant sum", "chain dedekind(1, 10^9)\n  = 0 by unfold\n", "limit"),
+    ("giant finite sum", "claim sum(j = 1 .. 10^15, j) = 0\n", "limit"),
+    ("giant partition table", "claim partitions(10^12, [10^9, 10^9 + 1]) = 0\n", "limit"),
+    ("giant Frobenius table", "claim frobenius([10^12 + 1, 10^12]) = 0\n", "limit"),
+    ("huge Fourier-Dedekind modulus", "claim fourier_dedekind(1, [1, 1], 10^9000 + 1) = 0\n", "limit"),
+    ("power of a call", "chain dedekind(1, 3)^(10^7)\n  = 0 by value\n", "limit"),
+    ("long literal", "claim " + "9" * 300_000 + " = 1\n", "limit"),
+    ("long list", "claim frobenius([" + ", ".join(["7"] * 2000) + "]) = 0\n", "limit"),
+    ("a one-megabyte line", "claim " + "+".join(["1"] * 500_000) + " = 500000\n", None),
+    ("identity with an enormous period", "identity for n >= 0: sawtooth(n/10^12) = 0\n", "limit"),
+    ("identity with huge parts", "identity for n >= 0: partitions(n, [10^6, 10^6 + 1]) = 0\n", "limit"),
+    ("identity with a huge degree", "identity for n >= 0: n^(10^7) * floor(n/2) = 0\n", "limit"),
+    ("identity far from its threshold", "identity for n >= -10^9: partitions(n, [1, 2]) = floor(n/2) + 1\n", "limit"),
+    ("division by zero", "claim 1/(2 - 2) = 0\n", "error"),
+    ("unknown name", "claim zeta(2) = 0\n", "error"),
+    ("escape-like strings", 'title "\\n\\x00"\nclaim 1 = 1\n', None),
+]
+
+
+@pytest.mark.parametrize("name, text, kind", HOSTILE, ids=[h[0] for h in HOSTILE])
+def test_hostile_inputs(name, text, kind):
+    start = time.perf_counter()
+    report = verdict(check_text(text))
+    elapsed = time.perf_counter() - start
+    if kind is None:
+        assert report.ok, report.failure
+    else:
+        assert not report.ok and report.failure.kind == kind, report.failure
+        assert report.failure.line is not None
+    assert elapsed < 30
+
+
+def test_many_megabytes_file(tmp_path):
+    # common practice: 12345678901234567890 * 3 = 37037036703703703670 (integer arithmetic)
+    path = tmp_path / "big.qcert"
+    path.write_text(_lines(60_000, "claim 12345678901234567890 * 3 = 37037036703703703670 * 1\n"))   # 3.5 MB
+    report = check_file(path)
+    assert report.ok and report.checked == 60_000
+
+
+def test_file_size_limit(tmp_path):
+    path = tmp_path / "big.qcert"
+    path.write_text(_lines(1000, "claim 1 = 1\n"))
+    report = check_file(path, Limits(file_bytes=100))
+    assert report.failure.kind == "unreadable"
+    assert report.failure.message == ("the file has 12000 bytes, over the limit file-bytes = 100 "
+                                      "(raise it with --limit file-bytes=N)")
+
+
+def test_time_limit():
+    report = check_text("claim 1 = 1\nclaim 2 = 2\n", limits=Limits(seconds=0))
+    f = report.failure
+    assert f.kind == "limit" and f.message.startswith("the check has run for more than 0 s, the limit seconds = 0")
+
+
+def test_list_and_literal_limits_name_themselves():
+    f = check_text("claim gcd([1, 2, 3]) = 1\n", limits=Limits(list_length=2)).failure
+    assert f.message == "a list of 3 entries is over the limit list-length = 2"
+    f = check_text("claim 123456 = 1\n", limits=Limits(literal_digits=5)).failure
+    assert f.message == "an integer literal of 6 digits is over the limit literal-digits = 5"
+    f = check_text("claim floor(floor(floor(1))) = 1\n", limits=Limits(nesting=2)).failure
+    assert f.message == "the expression is nested 3 levels deep, over the limit nesting = 2"
+    f = check_text("claim 1 + 1 + 1 = 3\n", limits=Limits(tokens=5)).failure
+    assert (f.message, f.line, f.column) == (
+        "the text has more than 5 tokens, the limit tokens = 5 (raise it with --limit tokens=N)", 1, 10)
+    f = check_text("chain dedekind(1, 30)\n  = 0 by unfold\n", limits=Limits(unfold_terms=10)).failure
+    assert "over the limit unfold-terms = 10" in f.message + " ".join(f.details)
+
+
+def test_cli_never_prints_a_traceback(tmp_path):
+    for name, text, kind in HOSTILE[:6]:
+        path = tmp_path / "h.qcert"
+        path.write_text(text)
+        out, err = io.StringIO(), io.StringIO()
+        code = main(["check", str(path)], out=out, err=err)
+        assert code in (0, 1, 2)
+        assert "Traceback" not in out.getvalue() + err.getvalue()
+
+
+def test_paranoid_mode_finds_a_planted_bug(monkeypatch):
+    import checker.kernel.functions as functions
+    from dataclasses import replace
+    wrong = replace(functions.REGISTRY["dedekind"], impl=lambda h, k: functions.dedekind(h, k) + 1)
+    monkeypatch.setitem(functions.REGISTRY, "dedekind", wrong)
+    report = check_text("claim dedekind(5, 17) = 18/17\n", paranoid=True)
+    f = report.failure
+    assert f.kind == "checker bug" and report.exit_code == 3
+    assert f.message.startswith("dedekind(5, 17) is 18/17 by the kernel but 1/17 by the definition, term by term")
+    assert check_text("claim dedekind(5, 17) = 18/17\n").ok       # without --paranoid the bug goes unseen
+
+
+def test_paranoid_mode_agrees_on_the_bundled_certificates():
+    from checker.interfaces.cli import bundled_certificates
+    for path in bundled_certificates():
+        assert check_file(path, paranoid=True).ok, path
+
+
+def test_reports_are_deterministic(tmp_path):
+    broken = sorted((Path(__file__).parent.parent / "broken").glob("*.qcert"))
+    outputs = set()
+    for _ in range(3):
+        out = io.StringIO()
+        main(["check", "--every-failure", "--no-time", *map(str, broken)], out=out, err=io.StringIO())
+        outputs.add(out.getvalue())
+    assert len(outputs) == 1
+
+
+_atom = st.one_of(st.integers(-40, 40), st.integers(-10**30, 10**30),
+                  st.tuples(st.integers(-20, 20), st.integers(1, 9)).map(lambda t: f"{t[0]}/{t[1]}"))
+_arg = st.recursive(_atom, lambda inner: st.lists(inner, max_size=4), max_leaves=6)
+
+
+def _text(v):
+    return "[" + ", ".join(_text(x) for x in v) + "]" if isinstance(v, list) else str(v)
+
+
+@settings(max_examples=500, deadline=None)
+@given(st.sampled_from(sorted(__import__("checker.kernel.functions", fromlist=["REGISTRY"]).REGISTRY)),
+       st.lists(_arg, max_size=4), st.sampled_from(["claim", "chain", "identity"]))
+def test_every_function_with_arbitrary_arguments(name, args, kind):
+    # found by a longer run of this test: identities once indexed missing arguments
+    call = f"{name}({', '.join(_text(a) for a in args)})"
+    if kind == "claim":
+        src = f"claim {call} = 0\n"
+    elif kind == "chain":
+        src = f"chain {call}\n  = 0 by value\n  = 0 by reduce\n"
+    else:
+        src = f"identity for n >= 0: {name}(n{''.join(', ' + _text(a) for a in args[1:])}) = 0\n"
+    verdict(check_text(src))
+
+
+def test_identity_with_a_missing_argument_names_the_arity():
+    f = check_text("identity for n >= 0: binomial(n) = 0\n").failure
+    assert f.message == "binomial takes 2 arguments (n, j), not 1"
+
+
+# -- lemmas: structured random texts reach a verdict, never a crash or a "checker bug" ---------
+
+_LEAVES = ["k", "h", "1", "2", "3", "-1", "0", "k/2", "h - k", "k + 1", "2*k + 1", "k^2"]
+
+
+@st.composite
+def _lemma_expr(draw, depth=0):
+    if depth > 2 or draw(st.integers(0, 3)) == 0:
+        return draw(st.sampled_from(_LEAVES))
+    a = draw(_lemma_expr(depth + 1))
+    b = draw(_lemma_expr(depth + 1))
+    form = draw(st.sampled_from(["dedekind({a}, {b})", "({a}) + ({b})", "({a})*({b})", "({a})/({b})",
+                                 "sawtooth(({a})/3)", "floor(({a})/2)", "mod({a}, {b})", "gcd({a}, {b})",
+                                 "({a})^2", "-({a})", "generalized_dedekind(1, {a}, {b})",
+                                 "binomial({a}, 2)", "bernoulli(2, {a})", "partitions({a}, [1, 2])"]))
+    return form.format(a=a, b=b)
+
+
+_CONDITIONS = ["k >= 1", "k >= 3", "h >= 1", "h < k", "k == 1 mod 2", "h == 2 mod 3", "gcd(h, k) = 1",
+               "h*k == 1 mod 5", "h^2 == -1 mod k", "k <= 0", "k = 2", "gcd(k, 0) = 1", "k == 0 mod 0"]
+_RULE_NAMES = ["reduce", "reciprocity", "negate", "inverse", "common_factor", "three_term", "unfold",
+               "value", "arithmetic", "claim c", "lemma f(k, h)", "lemma f(k)", "lemma g(1, 2)"]
+
+
+@st.composite
+def _lemma_text(draw):
+    conds = draw(st.lists(st.sampled_from(_CONDITIONS), max_size=4))
+    lhs, rhs = draw(_lemma_expr()), draw(_lemma_expr())
+    steps = draw(st.lists(st.tuples(_lemma_expr(), st.lists(st.sampled_from(_RULE_NAMES), min_size=1,
+                                                               max_size=2)), min_size=1, max_size=3))
+    chain = "  chain c: " + lhs + "\n" + "".join(f"    = {e} by {', '.join(r)}\n" for e, r in steps)
+    split = draw(st.sampled_from(["", "  split k mod 2\n  residue 0:\n" + chain + "  residue 1:\n" + chain]))
+    body = chain if not split else split
+    head = draw(st.sampled_from(["lemma f(k, h):\n", "lemma f(k):\n", "lemma f(k, k):\n"]))
+    assume = ("  given " + ", ".join(conds) + "\n") if conds else ""
+    return head + assume + f"  then {lhs} = {rhs}\n" + body + "end\nchain dedekind(2, 7) = 1/7 by lemma f(7, 3)\n"
+
+
+@settings(max_examples=300, deadline=None)
+@given(_lemma_text())
+def test_random_lemmas_reach_a_verdict(text):
+    start = time.perf_counter()
+    verdict(check_text(text))
+    assert time.perf_counter() - start < 20

@@ -3,7 +3,10 @@
 Public surface:
 
 - ``check_text(text, name)`` and ``check_file(path)``: replay a certificate,
-  returning a ``Report`` (``.ok``, ``.checked``, ``.failure``).
+  or check every row of a table (a path ending in .csv or .jsonl), returning
+  a ``Report`` (``.ok``, ``.checked``, ``.failures``; ``str(report)`` is the
+  text quasicert prints).  Checking nothing is a failure (``allow_empty=True``
+  accepts it).
 - ``evaluate(text)``: the exact value of an expression, a Fraction.
 - ``functions``: the kernel functions under their names in the language,
   plain callables on ints and Fractions.
@@ -15,7 +18,7 @@ from .foundation.errors import (BudgetExceeded, CertificateError, DomainError, R
 from .foundation.limits import DEFAULT_LIMITS, Limits
 from .foundation.version import __version__
 from .kernel import functions
-from .replay.checking import check_file, check_text
+from .interfaces.files import check_file, check_text
 from .replay.report import Failure, Report
 from .replay.values import evaluate, evaluate_value
 from .interfaces.builder import Certificate

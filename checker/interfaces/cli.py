@@ -19,6 +19,17 @@ from ..foundation.numbers import value_text
 __all__ = ["main"]
 
 EXIT_OK, EXIT_FAILED, EXIT_ERROR = 0, 1, 2
+EXIT_BROKEN_PIPE = 141       # 128 + SIGPIPE, what a shell reports for a writer whose reader went away
+
+
+def _quiet_closed_pipe(out) -> None:
+    """The reader of our output has gone (`| head`): stop quietly, also at interpreter exit."""
+    import os
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, (out if hasattr(out, "fileno") else sys.stdout).fileno())
+    except (OSError, ValueError, AttributeError):    # io.UnsupportedOperation is both of the first two
+        pass
 
 
 def _limits_from(pairs: Sequence[str]) -> Limits:
@@ -93,31 +104,49 @@ def _cmd_functions(out) -> int:
     return EXIT_OK
 
 
-def _cmd_rules(out) -> int:
+def _rule_entries() -> list[tuple[str, str, str, str | None]]:
+    """(name, statement, side conditions, source) for each rule a step may cite."""
     from ..kernel.rules import RULES, WHOLE_LINE_RULES
-    for rule in RULES.values():
-        print(f"{rule.name}\n    {rule.statement}\n    needs: {rule.conditions}\n    source: {rule.source}",
-              file=out)
+    entries = [(r.name, r.statement, r.conditions, r.source) for r in RULES.values()]
     for name, (statement, conditions, source) in WHOLE_LINE_RULES.items():
-        head = "claim LABEL" if name == "claim" else name
-        print(f"{head}\n    {statement}\n    needs: {conditions}", file=out)
-    print("lemma NAME(E1, ...)\n    previous line - next line = c * (lhs - rhs) of the lemma at the values E1, ...\n"
-          "    needs: the lemma was proved above or came by `use`; its assumptions hold for the values",
-          file=out)
-    print("\nIn lemmas every rule also takes parameters: its side conditions are derived from the "
-          "lemma's assumptions\n(gcd, signs, residues, divisibility) and refused, naming the condition, "
-          "when they cannot be.", file=out)
+        entries.append(("claim LABEL" if name == "claim" else name, statement, conditions, source))
+    entries.append(("lemma NAME(E1, ...)",
+                    "previous line - next line = c * (lhs - rhs) of the lemma at the values E1, ...",
+                    "the lemma was proved above or came by `use`; its assumptions hold for the values", None))
+    return entries
+
+
+def _cmd_rules(out, name: str | None = None) -> int:
+    entries = _rule_entries()
+    if name:
+        chosen = [e for e in entries if e[0].split()[0] == name.strip()]
+        if not chosen:
+            names = ", ".join(e[0].split()[0] for e in entries)
+            raise UsageError(f"there is no rule called '{name}'; the rules are {names}")
+        entries = chosen
+    for head, statement, conditions, source in entries:
+        print(f"{head}\n    {statement}\n    needs: {conditions}"
+              + (f"\n    source: {source}" if source else ""), file=out)
+    if not name:
+        print("\nIn lemmas every rule also takes parameters: its side conditions are derived from the "
+              "lemma's assumptions\n(gcd, signs, residues, divisibility) and refused, naming the condition, "
+              "when they cannot be.", file=out)
     return EXIT_OK
 
 
+INPUT_SUFFIXES = (".qcert", ".csv", ".jsonl")
+
+
 def certificate_paths(paths: Sequence[str]) -> list:
-    """Files named, and the *.qcert files below folders named, in a stable order."""
+    """Files named, and the certificates and tables (*.qcert, *.csv, *.jsonl) below folders named."""
     from pathlib import Path
     found = []
     for p in paths:
         path = Path(p)
-        if path.is_dir():
-            found.extend(sorted(q for q in path.rglob("*.qcert") if q.is_file()))   # tables only by name
+        if p == "-":
+            found.append(path)
+        elif path.is_dir():
+            found.extend(sorted(q for q in path.rglob("*") if q.suffix.lower() in INPUT_SUFFIXES and q.is_file()))
         elif path.exists():
             found.append(path)
         else:
@@ -133,12 +162,30 @@ def bundled_certificates() -> list:
 
 def _check_one(args):
     """Check one path (a certificate or a table); module level so that processes can run it."""
-    path, limits, keep_going, paranoid = args
-    from ..replay.checking import check_file
-    from .tables import TABLE_SUFFIXES, check_table
-    if path.suffix.lower() in TABLE_SUFFIXES:
-        return check_table(path, limits)
-    return check_file(path, limits, keep_going=keep_going, paranoid=paranoid)
+    path, limits, keep_going, paranoid, allow_empty = args
+    from .files import check_file
+    return check_file(path, limits, keep_going=keep_going, paranoid=paranoid, allow_empty=allow_empty)
+
+
+def _check_stdin(kind: str, limits, keep_going, paranoid, allow_empty):
+    """Standard input, read as a certificate or (with --as csv/jsonl) a table."""
+    from .files import check_text, require_something
+    from .tables import check_table
+    stream = sys.stdin
+    if kind in ("csv", "jsonl"):
+        if hasattr(stream, "reconfigure"):
+            stream.reconfigure(encoding="utf-8", newline="")
+        return require_something(check_table(f"-.{kind}", limits, stream=stream, name="<stdin>"), allow_empty)
+    data = stream.buffer.read() if hasattr(stream, "buffer") else stream.read().encode("utf-8")
+    try:
+        text = data.decode("utf-8")
+    except UnicodeDecodeError as e:
+        from ..replay.report import Failure, Report
+        report = Report(name="<stdin>")
+        report.failures.append(Failure(None, None, f"standard input is not UTF-8 text (byte {e.start})",
+                                       kind="unreadable", exit_code=EXIT_ERROR))
+        return report
+    return check_text(text, "<stdin>", limits, keep_going, paranoid, allow_empty)
 
 
 def _progress_bar(total, out, unit: str = "file"):
@@ -150,45 +197,99 @@ def _progress_bar(total, out, unit: str = "file"):
         from tqdm import tqdm
     except ImportError:
         return None
-    return tqdm(total=total, unit=unit, leave=False, file=sys.stderr)
+    return tqdm(total=total, unit=unit, leave=False, file=out)
+
+
+class _Ticker:
+    """On a terminal, a line 'checking NAME, 12 s' rewritten each second while one long check runs."""
+
+    def __init__(self, out, name: str, after: float = 2.0):
+        import threading
+        isatty = getattr(out, "isatty", None)
+        self.live = bool(isatty and isatty())
+        self.name, self.after = name, after
+        self.stop = threading.Event()
+        self.thread = threading.Thread(target=self._run, daemon=True) if self.live else None
+        self.shown = False
+
+    def _run(self):
+        import time
+        start = time.monotonic()
+        if self.stop.wait(self.after):
+            return
+        while not self.stop.is_set():
+            print(f"\rquasicert: checking {self.name}, {time.monotonic() - start:.0f} s ",
+                  end="", file=sys.stderr, flush=True)
+            self.shown = True
+            self.stop.wait(1.0)
+
+    def __enter__(self):
+        if self.thread:
+            self.thread.start()
+        return self
+
+    def __exit__(self, *exc):
+        if self.thread:
+            self.stop.set()
+            self.thread.join()
+            if self.shown:
+                print("\r\033[K", end="", file=sys.stderr, flush=True)
+        return False
 
 
 def _cmd_check(ns, out, err) -> int:
     import time
     from ..replay.report import render_failure, summary_line
-    from .tables import TABLE_SUFFIXES, check_table
+    from .files import EXIT_EMPTY
+    from .tables import check_table, is_table
     limits = _limits_from(ns.limit)
     paths = certificate_paths(ns.paths) if ns.paths else bundled_certificates()
-    if not paths:
-        raise UsageError("no certificates (*.qcert) found")
     if ns.jobs < 1:
         raise UsageError("--jobs wants a whole number >= 1")
+    if not paths:
+        if ns.allow_empty:
+            print("quasicert: nothing to check (no *.qcert, *.csv or *.jsonl found); --allow-empty accepts it",
+                  file=err)
+            return EXIT_OK
+        print("quasicert: nothing to check: no *.qcert, *.csv or *.jsonl file found (exit 4; --allow-empty "
+              "accepts it)", file=err)
+        return EXIT_EMPTY
+    if sum(1 for p in paths if str(p) == "-") > 1:
+        raise UsageError("standard input (-) can be read once only")
+    machine = ns.format != "text"
+    keep_going = ns.every_failure or machine          # JSON and SARIF carry every failure
     start = time.perf_counter()
-    jobs = [(p, limits, ns.every_failure, ns.paranoid) for p in paths]
-    bar = _progress_bar(len(paths), out)
-    if len(paths) == 1 and paths[0].suffix.lower() in TABLE_SUFFIXES:
-        rows_bar = _progress_bar(None, out, "row")
-        reports = [check_table(paths[0], limits, ns.jobs, rows_bar.update if rows_bar else None)]
-        if rows_bar:
+    jobs = [(p, limits, keep_going, ns.paranoid, ns.allow_empty) for p in paths]
+    bar = _progress_bar(len(paths), err)
+    reports = []
+    if len(paths) == 1 and str(paths[0]) != "-" and is_table(paths[0]):
+        from .files import require_something
+        rows_bar = _progress_bar(None, err, "row")
+        reports = [require_something(check_table(paths[0], limits, ns.jobs,
+                                                 rows_bar.update if rows_bar is not None else None),
+                                     ns.allow_empty)]
+        if rows_bar is not None:
             rows_bar.close()
-    elif ns.jobs > 1 and len(paths) > 1:
+    elif ns.jobs > 1 and len(paths) > 1 and not any(str(p) == "-" for p in paths):
         from concurrent.futures import ProcessPoolExecutor
         from .tables import bounded_map
-        reports = []
         with ProcessPoolExecutor(ns.jobs) as pool:
             for r in bounded_map(pool, _check_one, jobs, 4 * ns.jobs):
                 reports.append(r)
-                if bar:
+                if bar is not None:
                     bar.update()
     else:
-        reports = []
         for j in jobs:
-            reports.append(_check_one(j))
-            if bar:
+            with _Ticker(err if bar is None else None, str(j[0])):
+                if str(j[0]) == "-":
+                    reports.append(_check_stdin(ns.as_format, limits, keep_going, ns.paranoid, ns.allow_empty))
+                else:
+                    reports.append(_check_one(j))
+            if bar is not None:
                 bar.update()
-    if bar:
+    if bar is not None:
         bar.close()
-    if ns.format != "text":
+    if machine:
         from .formats import reports_json, reports_sarif
         out.write(reports_json(reports) if ns.format == "json" else reports_sarif(reports))
         return max((r.exit_code for r in reports), default=EXIT_OK)
@@ -208,22 +309,43 @@ def _cmd_latex(ns, out, err) -> int:
     from pathlib import Path
     from ..replay.library import read_certificate_text
     from .latex import certificate_latex
-    path = Path(ns.path)
-    if not path.exists():
-        raise UsageError(f"no such file: {ns.path}")
-    text = ""
+    if ns.path == "-":
+        text, name = sys.stdin.read(), "<stdin>"
+    else:
+        path = Path(ns.path)
+        if not path.exists():
+            raise UsageError(f"no such file: {ns.path}")
+        _refuse_overwrite(ns.output, ns.force, path)
+        text, name = "", str(path)
+        try:
+            text = read_certificate_text(path)
+        except CertificateError as e:
+            _print_error(e, text, str(path), err)
+            return EXIT_ERROR
+    _refuse_overwrite(ns.output, ns.force)
     try:
-        text = read_certificate_text(path)
-        document = certificate_latex(text, str(path))
+        document = certificate_latex(text.removeprefix("\ufeff"), name, fragment=ns.fragment)
     except CertificateError as e:
-        _print_error(e, text, str(path), err)
+        _print_error(e, text, name, err)
         return EXIT_ERROR
     return _emit(document, ns.output, out)
 
 
+def _refuse_overwrite(output, force: bool, source=None) -> None:
+    """-o FILE never replaces the input, and replaces another existing file only with --force."""
+    from pathlib import Path
+    if not output or output == "-":
+        return
+    target = Path(output)
+    if source is not None and target.exists() and target.resolve() == Path(source).resolve():
+        raise UsageError(f"{output} is the input itself; write the output elsewhere")
+    if target.exists() and not force:
+        raise UsageError(f"{output} exists; quasicert does not replace files unless --force is given")
+
+
 def _emit(text: str, output, out) -> int:
     """Write a command's document to -o FILE, or to the screen."""
-    if output:
+    if output and output != "-":
         try:
             with open(output, "w", encoding="utf-8") as fh:
                 fh.write(text)
@@ -236,6 +358,7 @@ def _emit(text: str, output, out) -> int:
 
 def _cmd_derive(ns, out, err) -> int:
     from .derive import derive
+    _refuse_overwrite(ns.output, ns.force)
     try:
         text = derive(ns.expression)
     except CertificateError as e:
@@ -249,15 +372,26 @@ def _parser() -> argparse.ArgumentParser:
         "Replays certificates about Dedekind-type sums, Bernoulli numbers and restricted "
         "partition functions with exact arithmetic, and points at the first wrong step."),
         epilog="exit status: 0 all verified, 1 a claim or step is wrong, 2 unreadable input, "
-               "a syntax error, a usage error or a limit reached, 3 a bug in quasicert found by --paranoid")
+               "a syntax error, a usage error or a limit reached, 3 a bug in quasicert found by --paranoid "
+               "or a lemma's second opinion, 4 nothing was checked (an empty certificate or table, or no "
+               "input found; --allow-empty accepts it)")
+    from ..foundation.version import __version__
+    p.add_argument("--version", action="version", version=f"quasicert {__version__}")
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
     c = sub.add_parser("check", help="replay certificates (default: the bundled ones)")
     c.add_argument("paths", nargs="*", metavar="PATH",
-                   help="*.qcert certificates, *.csv or *.jsonl tables of claims, or folders to search for *.qcert")
+                   help="*.qcert certificates, *.csv or *.jsonl tables of claims, folders (searched for all "
+                        "three), or - for standard input")
+    c.add_argument("--as", dest="as_format", choices=["qcert", "csv", "jsonl"], default="qcert",
+                   help="what standard input (-) holds: a certificate (default) or a table")
+    c.add_argument("--allow-empty", action="store_true",
+                   help="let a certificate or table that checks nothing (or no input at all) pass; "
+                        "by default it fails with exit status 4")
     c.add_argument("--jobs", type=int, default=1, metavar="N",
                    help="spread files, or the rows of one table, over N processes (same verdicts and order)")
     c.add_argument("--every-failure", action="store_true",
-                   help="go on past the first failure and list every failing step")
+                   help="go on past the first failure and list every failing step (always on for json and "
+                        "sarif; tables always list every failing row)")
     c.add_argument("--list-each", action="store_true",
                    help="print one verdict line per file, and how each identity was decided")
     c.add_argument("--limit", action="append", metavar="NAME=N", default=[],
@@ -274,11 +408,16 @@ def _parser() -> argparse.ArgumentParser:
     d = sub.add_parser("derive", help="write a certificate for a value, e.g. \"dedekind(5, 17)\"")
     d.add_argument("expression")
     d.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
+    d.add_argument("--force", action="store_true", help="replace FILE if it exists")
     t = sub.add_parser("latex", help="write a checked certificate as a LaTeX document (failures marked)")
-    t.add_argument("path")
+    t.add_argument("path", help="a certificate, or - for standard input")
     t.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
+    t.add_argument("--force", action="store_true", help="replace FILE if it exists")
+    t.add_argument("--fragment", action="store_true",
+                   help="only the body, without preamble, to paste into a document that loads amsmath")
     sub.add_parser("functions", help="list the functions of the language")
-    sub.add_parser("rules", help="list the rules a step may cite")
+    r = sub.add_parser("rules", help="list the rules a step may cite, or one rule with its side conditions")
+    r.add_argument("name", nargs="?", help="one rule, e.g. reciprocity")
     return p
 
 
@@ -290,6 +429,10 @@ def main(argv: Sequence[str] | None = None, out=None, err=None) -> int:
     try:
         if argv and argv[0] == "eval":
             return _cmd_eval(argv[1:], out, err)
+        if argv[:1] == ["--version"]:
+            from ..foundation.version import __version__
+            print(f"quasicert {__version__}", file=out)
+            return EXIT_OK
         parser = _parser()
         ns = parser.parse_args(argv)
         if ns.command == "check":
@@ -301,7 +444,7 @@ def main(argv: Sequence[str] | None = None, out=None, err=None) -> int:
         if ns.command == "functions":
             return _cmd_functions(out)
         if ns.command == "rules":
-            return _cmd_rules(out)
+            return _cmd_rules(out, ns.name)
         parser.print_help(file=err)
         return EXIT_ERROR
     except CertificateError as e:
@@ -315,6 +458,9 @@ def main(argv: Sequence[str] | None = None, out=None, err=None) -> int:
     except KeyboardInterrupt:
         print("quasicert: interrupted", file=err)
         return 130
+    except BrokenPipeError:
+        _quiet_closed_pipe(out)
+        return EXIT_BROKEN_PIPE
     except Exception as e:  # a bug of ours: say so plainly instead of a traceback
         print(f"quasicert: internal error, please report it: {type(e).__name__}: {e}", file=err)
         return EXIT_ERROR

@@ -17,7 +17,7 @@ _SARIF_SCHEMA = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/sche
 def _verdict(report) -> str:
     if report.ok:
         return "verified"
-    return {1: "failed", 2: "undecided", 3: "checker bug"}.get(report.exit_code, "failed")
+    return {1: "failed", 2: "undecided", 3: "checker bug", 4: "empty"}.get(report.exit_code, "failed")
 
 
 def _failure(f) -> dict:
@@ -32,6 +32,8 @@ def _failure(f) -> dict:
         out["exact"] = value_text(f.exact)
     if f.source_note:
         out["source"] = f.source_note
+    if f.row is not None:
+        out["row"] = f.row
     return out
 
 
@@ -64,6 +66,8 @@ _RULES = {
     "limit": "a request over a budget: the check stopped without a verdict",
     "unreadable": "a file that cannot be read as UTF-8 text",
     "checker bug": "two independent computations disagree (--paranoid)",
+    "empty": "an input that checks nothing (an empty certificate or table)",
+    "rule refused": "a rule cited where its side conditions do not hold",
 }
 
 
@@ -88,12 +92,18 @@ def reports_sarif(reports) -> str:
             if region:
                 location["physicalLocation"]["region"] = region
             text = f.message + "".join(f"\n{d}" for d in f.details)
-            results.append({
+            result = {
                 "ruleId": _rule_id(f.kind),
                 "level": "warning" if f.kind == "limit" else "error",
                 "message": {"text": text},
                 "locations": [location],
-            })
+            }
+            values = {k: value_text(v) for k, v in (("claimed", f.claimed), ("exact", f.exact)) if v is not None}
+            if f.row is not None:
+                values["row"] = f.row
+            if values:
+                result["properties"] = values
+            results.append(result)
     log = {
         "$schema": _SARIF_SCHEMA,
         "version": "2.1.0",
@@ -103,6 +113,7 @@ def reports_sarif(reports) -> str:
                 "version": __version__,
                 "rules": [{"id": _rule_id(k), "shortDescription": {"text": v}} for k, v in _RULES.items()],
             }},
+            "columnKind": "unicodeCodePoints",       # columns count characters, as Python strings do
             "results": results,
         }],
     }

@@ -205,8 +205,12 @@ def _lemma_latex(s: st.Lemma, failed_lines, statement_fails: bool) -> list:
     return out
 
 
-def certificate_latex(text: str, name: str = "<text>") -> str:
-    """A standalone LaTeX document for a certificate, with failing statements marked."""
+def certificate_latex(text: str, name: str = "<text>", fragment: bool = False) -> str:
+    """A standalone LaTeX document for a certificate, with failing statements marked.
+
+    With `fragment`, only the body: no preamble and no document environment, to be
+    pasted into a document that loads amsmath and amssymb.
+    """
     cert = parse_certificate(text, name)
     report = check_certificate(cert, keep_going=True)
     failed_lines = {f.line for f in report.failures if f.line}
@@ -214,7 +218,7 @@ def certificate_latex(text: str, name: str = "<text>") -> str:
     def fails(node) -> bool:
         return any(node.pos.line <= ln <= node.pos.end_line for ln in failed_lines)
 
-    out = [r"\documentclass{article}", r"\usepackage{amsmath,amssymb}", r"\begin{document}"]
+    out = [] if fragment else [r"\documentclass{article}", r"\usepackage{amsmath,amssymb}", r"\begin{document}"]
     title = report.title or name
     out.append(r"\section*{" + _text(title) + "}")
     verdict = "verified" if report.ok else f"{len(report.failures)} statement(s) do not hold"
@@ -252,5 +256,6 @@ def certificate_latex(text: str, name: str = "<text>") -> str:
                                      for r in s.representations)
             out.append(r"\[ " + expression_latex(s.lhs) + " = " + expression_latex(s.rhs) + mark + r" \]")
             out.append(r"since $p(" + expression_latex(s.rhs) + r") = 0$ and \[ " + reps + r" \]")
-    out.append(r"\end{document}")
+    if not fragment:
+        out.append(r"\end{document}")
     return "\n".join(out) + "\n"

@@ -24,6 +24,7 @@ class Failure:
     exact: Optional[Fraction] = None
     source_note: Optional[str] = None
     exit_code: int = 1
+    row: Optional[str] = None         # a table's failing row as written (certificates: None)
 
 
 @dataclass
@@ -48,14 +49,20 @@ class Report:
     def exit_code(self) -> int:
         return max((f.exit_code for f in self.failures), default=0)
 
+    def __str__(self) -> str:
+        return render_report(self, verbose=True)
+
 
 def _marked_line(text: str, f: Failure) -> list[str]:
     if not f.line or not f.column:
         return []
-    lines = text.splitlines()
-    if f.line > len(lines):
-        return []
-    src = lines[f.line - 1].rstrip()
+    if f.row is not None:
+        src = f.row.rstrip("\r\n")
+    else:
+        lines = text.splitlines()
+        if f.line > len(lines):
+            return []
+        src = lines[f.line - 1].rstrip()
     start = f.column - 1
     end = f.end_column - 1 if f.end_column and f.end_column > f.column else start + 1
     # long lines (derived certificates) are cut around the mark
@@ -83,6 +90,7 @@ def render_failure(report: Report, f: Failure) -> str:
 
 
 def render_report(report: Report, verbose: bool = False) -> str:
+    """Every failure as `render_failure` shows it, then (if verbose or none failed) a verdict line."""
     lines = [render_failure(report, f) for f in report.failures]
     if verbose or not report.failures:
         status = "verified" if report.ok else "FAILED"
@@ -92,13 +100,27 @@ def render_report(report: Report, verbose: bool = False) -> str:
     return "\n".join(lines)
 
 
+def _is_table(name: str) -> bool:
+    return name.lower().endswith((".csv", ".jsonl")) or name == "<stdin>.csv"
+
+
+def _count(n: int, word: str) -> str:
+    return f"{n} {word}{'s' if n != 1 else ''}"
+
+
 def summary_line(reports: list[Report], seconds: float | None) -> str:
     files = len(reports)
     good = sum(1 for r in reports if r.ok)
     checked = sum(r.checked for r in reports)
     failures = sum(len(r.failures) for r in reports)
+    tables = sum(1 for r in reports if _is_table(r.name))
     head = "all verified" if good == files else f"{files - good} of {files} not verified"
-    return (f"quasicert: {head}: {files} certificate{'s' if files != 1 else ''}, "
-            f"{checked} claim{'s' if checked != 1 else ''} and steps verified, "
-            f"{failures} failure{'s' if failures != 1 else ''}"
+    if not tables:
+        what = f"{_count(files, 'certificate')}, {checked} claim{'s' if checked != 1 else ''} and steps verified"
+    elif tables == files:
+        what = f"{_count(files, 'table')}, {_count(checked, 'row')} verified"
+    else:
+        what = (f"{_count(files - tables, 'certificate')} and {_count(tables, 'table')}, "
+                f"{checked} claims, steps and rows verified")
+    return (f"quasicert: {head}: {what}, {_count(failures, 'failure')}"
             + (f", {seconds:.2f} s" if seconds is not None else ""))

@@ -5,6 +5,8 @@ import subprocess
 import sys
 from pathlib import Path
 
+from fractions import Fraction
+
 import pytest
 
 from checker.interfaces.cli import main
@@ -29,9 +31,14 @@ def test_every_wrong_row_is_reported_and_no_correct_one(big_table):
     assert [f.line for f in report.failures] == wrong
     assert report.checked == 100_000 - len(wrong)
     f = report.failures[0]
-    assert f.column == 4 and f.message == f"row at line {wrong[0]}, column 4: the claimed value is wrong"
-    assert f.claimed - f.exact == f.claimed - f.exact  # exact values kept as Fractions
-    assert f.details[0].startswith("claimed: ")
+    row = path.read_text().splitlines()[wrong[0] - 1]
+    name, h, k, value = row.split(",")
+    assert f.row == row and f.column == len(f"{name},{h},{k},") + 1      # the character where the value starts
+    assert f.end_column == len(row) + 1
+    assert f.message == f"row at line {wrong[0]}: dedekind({h}, {k}) is not {value}"
+    assert isinstance(f.claimed, Fraction) and f.claimed == Fraction(value)
+    assert f.claimed - f.exact == Fraction(1, int(k))                  # tests/tools/make_table.py adds 1/k
+    assert f.details[0] == f"the row claims: {value}"
 
 
 def test_two_processes_give_the_same_report(big_table):
@@ -68,13 +75,13 @@ def test_jsonl_and_cli(tmp_path):
 
 @pytest.mark.parametrize("text, message", [
     ("function,h,k,value\ndedekind,5,17,1/17\ndedekind,5,0,0\n",
-     "row at line 3: the second argument of dedekind must be a positive integer, not 0"),
-    ("function,h,k,value\ndedekind,5,17\n", "row at line 2, column 1: the row has 3 columns, the header 4"),
+     "row at line 3: dedekind(5, 0): the second argument of dedekind must be a positive integer, not 0"),
+    ("function,h,k,value\ndedekind,5,17\n", "row at line 2: the row has 3 columns, the header 4"),
     ("function,h,k,value\ndedekin,5,17,0\n",
-     "row at line 2, column 1: unknown function 'dedekin' (did you mean dedekind or fourier_dedekind?); `quasicert functions` lists them"),
+     "row at line 2: unknown function 'dedekin' (did you mean dedekind or fourier_dedekind?); `quasicert functions` lists them"),
     ("expression,value\ndedekind(5, 17) + 1,18/17\nfloor(7/2),4\n",
-     "row at line 3, column 2: the claimed value is wrong"),
-    ("h,k\n1,2\n", "the header must be 'expression,value' or 'function,<arguments...>,value', not 'h,k'"),
+     "row at line 3: floor(7/2) is not 4"),
+    ("h,k\n1,2\n", "the header must be 'expression,value' or 'function,<argument names>,value', not 'h,k'"),
 ])
 def test_bad_rows(tmp_path, text, message):
     path = tmp_path / "t.csv"

@@ -6,26 +6,71 @@
 Certificate('values from my Dedekind-sum program', 2 statements)
 >>> cert.check().ok
 True
+
+Values may be ints, Fractions, python-flint's fmpz and fmpq, gmpy2's mpz and
+mpq, strings "p/q" of ASCII digits, or lists of them; floats are refused (not
+exact).  `chain` writes a chain of steps and `witness` a Frobenius-number
+witness:
+
+>>> c = Certificate().chain("dedekind(7, 17)", [("dedekind(5, 17)", "inverse"), ("1/17", "value")])
+>>> c.witness([3, 5], 7, {8: "3 + 5", 9: "3*3", 10: "2*5"}).check().ok
+True
+>>> print(Certificate().claim("dedekind(1, 3)", "1/17").check())   # a Report prints as its text
+<built>:1:24: failed: the claim is false: the two sides differ
+    claim dedekind(1, 3) = 1/17
+                           ^^^^
+  left side:  1/18
+  right side: 1/17   (claimed)
+  difference (right - left): 1/306
+<built>: FAILED, 0 claims and steps checked
 """
 from __future__ import annotations
 
+import re
 from fractions import Fraction
 
-from ..replay.checking import check_text
+from .files import check_text
 from ..foundation.limits import DEFAULT_LIMITS
 from ..foundation.numbers import value_text
 
-__all__ = ["Certificate"]
+__all__ = ["Certificate", "exact"]
 
 _RELATIONS = {"=", "<", "<=", ">", ">=", "!="}
 
 
+_RATIO = re.compile(r"\s*(-?[0-9]+)\s*(?:/\s*([0-9]+)\s*)?", re.ASCII)
+
+
+def exact(v) -> Fraction:
+    """An exact rational from an int, a Fraction, python-flint's fmpz/fmpq, gmpy2's mpz/mpq or "p/q".
+
+    >>> exact("-6/8"), exact(3)
+    (Fraction(-3, 4), Fraction(3, 1))
+    """
+    if isinstance(v, bool) or isinstance(v, float):
+        raise TypeError(f"a value must be exact (an int, a Fraction, \"p/q\"), not the {type(v).__name__} {v!r}")
+    if isinstance(v, (int, Fraction)):
+        return Fraction(v)
+    if isinstance(v, str):
+        m = _RATIO.fullmatch(v)
+        if not m or m.group(2) == "0" or (m.group(2) and not int(m.group(2))):
+            raise ValueError(f"a value given as text must be an integer or p/q in ASCII digits, not {v!r}")
+        return Fraction(int(m.group(1)), int(m.group(2) or 1))
+    kind = type(v).__module__.split(".")[0] + "." + type(v).__name__
+    if kind in ("flint.fmpz", "gmpy2.mpz", "flint.fmpq", "gmpy2.mpq"):
+        # both libraries give exact numerator and denominator as integers
+        p, q = v.numerator, v.denominator
+        if callable(p):                   # python-flint: methods p() and q()
+            p, q = v.p, v.q
+        return Fraction(int(p), int(q))
+    raise TypeError(f"a value must be an int, a Fraction, a flint or gmpy2 integer or rational, or \"p/q\", "
+                    f"not {type(v).__name__}")
+
+
 def _value(v) -> str:
-    if isinstance(v, bool) or not isinstance(v, (int, Fraction, list, tuple)):
-        raise TypeError(f"a value must be an int, a Fraction or a list of them, not {type(v).__name__}")
     if isinstance(v, (list, tuple)):
         return "[" + ", ".join(_value(x) for x in v) + "]"
-    return value_text(Fraction(v))
+    return value_text(exact(v))
 
 
 def _quote(text: str) -> str:
@@ -95,11 +140,42 @@ class Certificate:
         self._count += 1
         return self
 
+    def chain(self, start: str, steps, label: str | None = None) -> "Certificate":
+        """A chain from `start`: steps are (expression or value, rule or list of rules) pairs.
+
+        Each rule is a name (`reduce`, `reciprocity`, `value`, ...), `claim LABEL`
+        or `lemma NAME(E, ...)`, as `quasicert rules` lists them.
+        """
+        lines = [f"chain {label}: {start}" if label else f"chain {start}"]
+        for expression, rules in steps:
+            shown = expression if isinstance(expression, str) and not _RATIO.fullmatch(expression) \
+                else _value(expression)
+            cited = rules if isinstance(rules, str) else ", ".join(rules)
+            lines.append(f"  = {shown}    by {cited}")
+        self._lines.extend(lines)
+        self._count += 1
+        return self
+
+    def witness(self, parts, frobenius_number, representations, label: str | None = None) -> "Certificate":
+        """frobenius(parts) = G with each of G+1, ..., G+min(parts) written as a combination of the parts.
+
+        `representations` maps each number to its combination, e.g. {8: "3 + 5", 9: "3*3"}.
+        """
+        reps = ", ".join(f"{_value(n)} = {combo}" for n, combo in sorted(representations.items(),
+                                                                           key=lambda item: exact(item[0])))
+        head = f"witness {label}: " if label else "witness "
+        self._lines.append(f"{head}frobenius({_value(list(parts))}) = {_value(frobenius_number)}: {reps}")
+        self._count += 1
+        return self
+
     def text(self) -> str:
         return "\n".join(self._lines) + "\n"
 
-    def check(self, name: str = "<built>", limits=DEFAULT_LIMITS, keep_going: bool = True):
-        return check_text(self.text(), name, limits, keep_going)
+    def check(self, name: str = "<built>", limits=DEFAULT_LIMITS, keep_going: bool = False,
+              allow_empty: bool = False):
+        """The Report of replaying the text; like checker.check_text, it stops at the first failure
+        unless keep_going, and an empty certificate fails unless allow_empty."""
+        return check_text(self.text(), name, limits, keep_going, allow_empty=allow_empty)
 
     def __repr__(self) -> str:
         title = self._lines[0][7:-1] if self._lines and self._lines[0].startswith("title ") else ""

@@ -112,6 +112,15 @@ def _not_exact(text: str) -> str | None:
     return None
 
 
+def _plain_int(text: str):
+    """The int written in ASCII digits with an optional minus sign, else None (a short path, no regex)."""
+    if len(text) < 4000 and text.isascii():
+        digits = text[1:] if text[:1] == "-" else text
+        if digits.isdigit():
+            return int(text)
+    return None
+
+
 def _number(text: str):
     """An int or Fraction for `n` or `p/q` in ASCII digits, else None."""
     m = _NUMBER.fullmatch(text)
@@ -522,11 +531,11 @@ def _compare(exact, value, ev: Evaluator, where, call: str) -> None:
     if isinstance(exact, tuple):
         raise _RowError(0, f"{call} is a list, not a number")
     if isinstance(value, str):
-        m = _NUMBER.fullmatch(value)
-        if m and len(value) < 4000:           # cross-multiplied: no gcd of the claimed fraction
-            num, den = int(m.group(1)), int(m.group(2) or 1)
-            if den and num * exact.denominator == exact.numerator * den:
-                return
+        head, slash, tail = value.partition("/")
+        num, den = _plain_int(head), _plain_int(tail) if slash else 1
+        # cross-multiplied: no gcd for the claimed fraction
+        if num is not None and den and den > 0 and num * exact.denominator == exact.numerator * den:
+            return
     claimed = _claimed(value, ev, where)
     if claimed != exact:
         raise _Wrong(where, call, _written(value), Fraction(claimed), exact)
@@ -542,9 +551,8 @@ def _function_row(payload, ev: Evaluator, fmt: str):
     args = []
     for i, a in enumerate(arg_texts):
         if isinstance(a, str):
-            m = _INT.fullmatch(a)
-            args.append(int(m.group(1)) if m and len(a) < 4000 else
-                        _literal(a, ev, i + 1 if csv_row else ("args", i)))
+            n = _plain_int(a)
+            args.append(n if n is not None else _literal(a, ev, i + 1 if csv_row else ("args", i)))
         elif isinstance(a, tuple):
             args.append(tuple(x if isinstance(x, int) else _literal(x, ev, ("args", i)) for x in a))
         else:

@@ -207,7 +207,7 @@ class _Ticker:
         import threading
         isatty = getattr(out, "isatty", None)
         self.live = bool(isatty and isatty())
-        self.name, self.after = name, after
+        self.out, self.name, self.after = out, name, after
         self.stop = threading.Event()
         self.thread = threading.Thread(target=self._run, daemon=True) if self.live else None
         self.shown = False
@@ -219,7 +219,7 @@ class _Ticker:
             return
         while not self.stop.is_set():
             print(f"\rquasicert: checking {self.name}, {time.monotonic() - start:.0f} s ",
-                  end="", file=sys.stderr, flush=True)
+                  end="", file=self.out, flush=True)
             self.shown = True
             self.stop.wait(1.0)
 
@@ -233,7 +233,7 @@ class _Ticker:
             self.stop.set()
             self.thread.join()
             if self.shown:
-                print("\r\033[K", end="", file=sys.stderr, flush=True)
+                print("\r\033[K", end="", file=self.out, flush=True)
         return False
 
 

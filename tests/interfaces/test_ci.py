@@ -430,3 +430,22 @@ def test_check_text_and_the_builder_agree_on_stopping():
     assert cert.text() == text
     assert len(check_text(text).failures) == len(cert.check().failures) == 1
     assert len(check_text(text, keep_going=True).failures) == len(cert.check(keep_going=True).failures) == 2
+
+
+def test_a_long_single_check_shows_a_progress_line_on_a_terminal():
+    import time
+    from checker.interfaces.cli import _Ticker
+
+    class Terminal(io.StringIO):
+        def isatty(self):
+            return True
+    shown = Terminal()
+    with _Ticker(shown, "slow.qcert", after=0.05):
+        time.sleep(1.3)
+    assert "quasicert: checking slow.qcert, 0 s" in shown.getvalue() or \
+        "quasicert: checking slow.qcert, 1 s" in shown.getvalue()
+    assert shown.getvalue().endswith("\r\033[K")                       # the line is cleared afterwards
+    piped = io.StringIO()
+    with _Ticker(piped, "slow.qcert", after=0.05):
+        time.sleep(0.2)
+    assert piped.getvalue() == ""                                      # nothing when piped

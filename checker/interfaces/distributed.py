@@ -16,14 +16,18 @@ from pathlib import Path
 from ..foundation.errors import CertificateError
 from ..foundation.limits import DEFAULT_LIMITS, Limits
 from ..replay.report import Failure, Report
+from .files import require_something
 from .tables import _batches, check_rows, table_rows
 
 __all__ = ["check_table_on"]
 
 
 def check_table_on(client, path, limits: Limits = DEFAULT_LIMITS, batch_rows: int = 20_000,
-                   in_flight_per_worker: int = 2) -> Report:
-    """Check every row of a CSV or JSON Lines table with the workers of a dask.distributed Client."""
+                   in_flight_per_worker: int = 2, allow_empty: bool = False) -> Report:
+    """Check every row of a CSV or JSON Lines table with the workers of a dask.distributed Client.
+
+    Like a local check, a table without rows fails (exit code 4) unless allow_empty.
+    """
     from collections import deque
     path = Path(path)
     report = Report(name=str(path))
@@ -45,4 +49,4 @@ def check_table_on(client, path, limits: Limits = DEFAULT_LIMITS, batch_rows: in
             collect(pending.popleft())
     except CertificateError as e:
         report.failures.append(Failure(e.line, e.column, e.message, kind=e.kind, exit_code=2))
-    return report
+    return require_something(report, allow_empty)

@@ -551,20 +551,41 @@ def _function_row(payload, ev: Evaluator, fmt: str):
     args = []
     for i, a in enumerate(arg_texts):
         if isinstance(a, str):
-            n = _plain_int(a)
-            args.append(n if n is not None else _literal(a, ev, i + 1 if csv_row else ("args", i)))
+            # inline short path: ASCII digits with at most a leading minus (int() alone would also
+            # take spaces, '+', '_' and the digits of other scripts)
+            if a.isascii() and a.lstrip("-").isdigit() and a[1:2] != "-":
+                try:
+                    args.append(int(a))
+                    continue
+                except ValueError:
+                    pass            # over Python's digit limit: the long path reads it
+            args.append(_literal(a, ev, i + 1 if csv_row else ("args", i)))
         elif isinstance(a, tuple):
             args.append(tuple(x if isinstance(x, int) else _literal(x, ev, ("args", i)) for x in a))
         else:
             args.append(a)
-    call = f"{name}({', '.join(_written(a) for a in arg_texts)})"
     try:
         # no memo: the rows of a table rarely repeat, and a memo of millions would grow without end
         exact = spec.call(tuple(args), ev.limits)
     except CertificateError as e:
-        raise _RowError(0 if csv_row else "function", f"{call}: {e.message}",
+        raise _RowError(0 if csv_row else "function", f"{_call_text(name, arg_texts)}: {e.message}",
                         2 if e.kind == "limit" else 1) from None
-    _compare(exact, value, ev, len(arg_texts) + 1 if csv_row else "value", call)
+    if isinstance(value, str) and not isinstance(exact, tuple) and value.isascii():
+        # the short path of _compare, inline: most rows of a long table are plain and right
+        head, slash, tail = value.partition("/")
+        if head.lstrip("-").isdigit() and head[1:2] != "-" and (not slash or tail.isdigit()):
+            try:
+                num, den = int(head), int(tail) if slash else 1
+            except ValueError:
+                num, den = 0, 0
+            if den and num * exact.denominator == exact.numerator * den:
+                return
+    _compare(exact, value, ev, len(arg_texts) + 1 if csv_row else "value", _call_text(name, arg_texts))
+
+
+def _call_text(name: str, arg_texts) -> str:
+    """The row's call as a reader writes it: dedekind(5, 17)."""
+    return f"{name}({', '.join(_written(a) for a in arg_texts)})"
 
 
 def _expression_row(payload, ev: Evaluator, fmt: str):

@@ -29,8 +29,8 @@ def require_something(report: Report, allow_empty: bool = False) -> Report:
     if report.checked == 0 and not report.failures and not allow_empty:
         what = ("the table has no rows" if is_table(report.name) else
                 "the certificate has no claim, chain, identity, witness, lemma or use")
-        report.failures.append(Failure(
-            None, None, f"nothing was checked: {what}; an empty input is refused so that a missing "
+        report.failures.append(Failure(      # located at the start, where something was expected
+            1, 1, f"nothing was checked: {what}; an empty input is refused so that a missing "
             "result cannot pass (--allow-empty accepts it)", kind="empty", exit_code=EXIT_EMPTY))
     return report
 

@@ -560,7 +560,8 @@ def test_latex_marks_a_failing_lemma_step():
     from checker.interfaces.latex import certificate_latex
     doc = certificate_latex(TWO_ODD.replace("(k - 1)*(k - 5)/(24*k)                            by value",
                                             "(k - 1)*(k - 7)/(24*k) by value"))
-    assert r"\paragraph{Lemma (two\_odd).}" in doc
+    # a false lemma is a claimed lemma with an attempted proof, not "Lemma ... Proof ... square"
+    assert r"\paragraph{Claimed lemma (two\_odd), not verified.}" in doc and r"\square" not in doc
     marked = [ln for ln in doc.splitlines() if r"\fbox" in ln]
     assert len(marked) == 1 and "by value" not in marked[0] and r"\text{(value)}" in marked[0]
 

@@ -594,7 +594,8 @@ def _expression_row(payload, ev: Evaluator, fmt: str):
     if _UNUSUAL.search(text):
         _odd_characters(text, where_expr)
     m = _CALL.match(text)
-    spec = REGISTRY.get(m.group(1)) if m else None
+    # one call only: "f(a) + g(b)" also matches the pattern, with the unbalanced inside "a) + g(b"
+    spec = REGISTRY.get(m.group(1)) if m and _balanced(m.group(2)) else None
     exact = None
     if spec is not None:
         try:
@@ -609,6 +610,18 @@ def _expression_row(payload, ev: Evaluator, fmt: str):
         except CertificateError as e:
             raise _RowError(where_expr, f"{text.strip()}: {e.message}", 2 if e.kind == "limit" else 1) from None
     _compare(exact, value, ev, where_value, " ".join(text.split()))
+
+
+def _balanced(text: str) -> bool:
+    depth = 0
+    for ch in text:
+        if ch in "([":
+            depth += 1
+        elif ch in ")]":
+            depth -= 1
+            if depth < 0:
+                return False
+    return depth == 0
 
 
 def _failure(line, text, fmt, where, message, details=(), kind="error", claimed=None, exact=None,

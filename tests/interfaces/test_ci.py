@@ -449,3 +449,28 @@ def test_a_long_single_check_shows_a_progress_line_on_a_terminal():
     with _Ticker(piped, "slow.qcert", after=0.05):
         time.sleep(0.2)
     assert piped.getvalue() == ""                                      # nothing when piped
+
+
+def test_the_readme_shows_a_real_failing_row_report(tmp_path):
+    # s(3, 17) = 5/17 and s(8, 17) = -8/17, also by python-flint's fmpq.dedekind_sum
+    readme = (ROOT / "README.md").read_text()
+    block = readme.split("```\nsums.csv:4:15", 1)[1].split("```", 1)[0]
+    shown = "sums.csv:4:15" + block
+    (tmp_path / "sums.csv").write_text("function,h,k,value\ndedekind,5,17,1/17\ndedekind,7,17,1/17\n"
+                                       "dedekind,3,17,-1/17\ndedekind,8,17,2/34\ndedekind,4,17,0.0588\n")
+    done = cli("check", "--no-time", "sums.csv", cwd=tmp_path)
+    assert done.returncode == 1 and done.stdout == shown
+    flint = pytest.importorskip("flint")
+    assert flint.fmpq.dedekind_sum(3, 17) == flint.fmpq(5, 17) and flint.fmpq.dedekind_sum(8, 17) == flint.fmpq(-8, 17)
+
+
+@pytest.mark.parametrize("expression, value, ok", [
+    ("dedekind(5, 17) + dedekind(1, 3)", "1/17 + 1/18", True),     # two calls, not one call of "5, 17) + ..."
+    ("dedekind(5, 17) + dedekind(1, 3)", "1/17", False),
+    ("dedekind(5, 17)*0 + dedekind(1, 3)", "1/18", True),
+    ("dedekind((5), 17)", "1/17", True),
+])
+def test_expression_rows_are_read_as_the_language_reads_them(tmp_path, expression, value, ok):
+    path = tmp_path / "t.jsonl"
+    path.write_text(json.dumps({"expression": expression, "value": value}) + "\n")
+    assert check_table(path).ok == ok

@@ -146,7 +146,9 @@ def certificate_paths(paths: Sequence[str]) -> list:
         if p == "-":
             found.append(path)
         elif path.is_dir():
-            found.extend(sorted(q for q in path.rglob("*") if q.suffix.lower() in INPUT_SUFFIXES and q.is_file()))
+            # hidden folders (.git, .venv) hold other programs' files, not claims to check
+            found.extend(sorted(q for q in path.rglob("*") if q.suffix.lower() in INPUT_SUFFIXES and q.is_file()
+                                and not any(part.startswith(".") for part in q.relative_to(path).parts)))
         elif path.exists():
             found.append(path)
         else:

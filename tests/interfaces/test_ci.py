@@ -474,3 +474,37 @@ def test_expression_rows_are_read_as_the_language_reads_them(tmp_path, expressio
     path = tmp_path / "t.jsonl"
     path.write_text(json.dumps({"expression": expression, "value": value}) + "\n")
     assert check_table(path).ok == ok
+
+
+def test_a_folder_leaves_hidden_folders_alone(tmp_path):
+    (tmp_path / "a.qcert").write_text("claim dedekind(5, 17) = 1/17\n")
+    (tmp_path / ".venv").mkdir()
+    (tmp_path / ".venv" / "data.csv").write_text("x,y\n1,2\n")
+    assert run(["check", str(tmp_path)])[0] == 0
+
+
+def test_plugin_fails_a_certificate_with_a_syntax_error(pytester):
+    pytester.makefile(".qcert", broken="claim dedekind(5, 17) = 1/17\nclaim dedekind(1, 3) = = 5\n")
+    result = pytester.runpytest(*_plugin_args(), "--qcert", "-p", "no:cacheprovider")
+    outcomes = result.parseoutcomes()
+    assert outcomes.get("failed", 0) >= 1 and outcomes.get("passed", 0) == 0
+
+
+def test_jobs_give_the_same_report_for_a_folder_with_tables(tmp_path):
+    for i in range(3):
+        (tmp_path / f"c{i}.qcert").write_text(f"claim dedekind({i + 1}, 17) = 1/17\n")
+        (tmp_path / f"t{i}.csv").write_text(f"function,h,k,value\ndedekind,{i + 1},17,1/17\n")
+    one = run(["check", "--format", "json", str(tmp_path)])
+    two = run(["check", "--format", "json", "--jobs", "2", str(tmp_path)])
+    assert one[0] == two[0] == 1 and one[1] == two[1]
+
+
+def test_sarif_of_a_table_validates(tmp_path):
+    # the SARIF 2.1.0 schema (rtm.5), see tests/data/README.md
+    import jsonschema
+    path = tmp_path / "t.csv"
+    path.write_text("function,h,k,value\ndedekind,5,17,1/16\ndedekind,5,17,0.5\n")
+    log = json.loads(run(["check", "--format", "sarif", str(path)])[1])
+    official = json.loads((ROOT / "tests" / "data" / "sarif-2.1.0-rtm.5.json").read_text())
+    jsonschema.Draft4Validator(official).validate(log)
+    assert [r["ruleId"] for r in log["runs"][0]["results"]] == ["qc-failed", "qc-error"]

@@ -293,9 +293,24 @@ def _why(failures) -> list:
     out = []
     for f in failures:
         lines = [f.message] + [d for d in f.details if d.strip()]
-        out.append(r"\par\begingroup\raggedright\noindent{\small\emph{Not verified:} "
+        exact = ""
+        if f.exact is not None and f.claimed is not None:
+            exact = (r"\par\noindent Exact value $" + _fraction(f.exact) + r"$, claimed $" + _fraction(f.claimed)
+                     + "$.")
+        out.append(r"\par\begingroup\raggedright" + exact + r"\par\noindent{\small\emph{Not verified:} "
                    + r"\\ ".join(_breakable(_text(ln)) for ln in lines) + r"}\par\endgroup")
     return out
+
+
+def _fraction(value) -> str:
+    """An exact rational in LaTeX, with break points in long numerators and denominators."""
+    sign = "-" if value < 0 else ""
+    p, q = abs(value.numerator), value.denominator
+    if q == 1:
+        return sign + _number(p)
+    if len(str(p)) + len(str(q)) > 40:
+        return sign + _number(p) + "/" + _number(q)
+    return sign + r"\frac{" + _number(p) + "}{" + _number(q) + "}"
 
 
 def _chain_latex(s: st.Chain, failures_at) -> list:

@@ -103,6 +103,7 @@ def test_a_false_claim_shows_the_exact_value():
     doc = certificate_latex("claim dedekind(5, 17) = 1/16\n")
     assert r"\fbox{\text{does not hold}}" in doc
     assert "left side:  1/17" in doc and "right side: 1/16" in doc
+    assert r"Exact value $\frac{1}{17}$, claimed $\frac{1}{16}$." in doc
 
 
 def test_long_numbers_may_break_and_wide_chains_flow():

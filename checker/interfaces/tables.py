@@ -548,22 +548,18 @@ def _function_row(payload, ev: Evaluator, fmt: str):
     if spec is None:
         from ..kernel.evaluation import _unknown_function
         raise _RowError(0 if csv_row else "function", _unknown_function(name))
-    args = []
-    for i, a in enumerate(arg_texts):
-        if isinstance(a, str):
-            # inline short path: ASCII digits with at most a leading minus (int() alone would also
-            # take spaces, '+', '_' and the digits of other scripts)
-            if a.isascii() and a.lstrip("-").isdigit() and a[1:2] != "-":
-                try:
-                    args.append(int(a))
-                    continue
-                except ValueError:
-                    pass            # over Python's digit limit: the long path reads it
-            args.append(_literal(a, ev, i + 1 if csv_row else ("args", i)))
-        elif isinstance(a, tuple):
-            args.append(tuple(x if isinstance(x, int) else _literal(x, ev, ("args", i)) for x in a))
-        else:
-            args.append(a)
+    args = None
+    if csv_row:
+        # the common row, all arguments plain integers: one test for all of them; int() then refuses
+        # a misplaced minus, an empty field and numbers over Python's digit limit (the long path reads those)
+        joined = "".join(arg_texts)
+        if joined.isascii() and joined.replace("-", "").isdigit():
+            try:
+                args = list(map(int, arg_texts))
+            except ValueError:
+                args = None
+    if args is None:
+        args = _arguments(arg_texts, ev, csv_row)
     try:
         # no memo: the rows of a table rarely repeat, and a memo of millions would grow without end
         exact = spec.call(tuple(args), ev.limits)
@@ -581,6 +577,27 @@ def _function_row(payload, ev: Evaluator, fmt: str):
             if den and num * exact.denominator == exact.numerator * den:
                 return
     _compare(exact, value, ev, len(arg_texts) + 1 if csv_row else "value", _call_text(name, arg_texts))
+
+
+def _arguments(arg_texts, ev: Evaluator, csv_row: bool) -> list:
+    """The arguments of a row, each read on its own (a CSV field or a JSON value)."""
+    args = []
+    for i, a in enumerate(arg_texts):
+        if isinstance(a, str):
+            # inline short path: ASCII digits with at most a leading minus (int() alone would also
+            # take spaces, '+', '_' and the digits of other scripts)
+            if a.isascii() and a.lstrip("-").isdigit() and a[1:2] != "-":
+                try:
+                    args.append(int(a))
+                    continue
+                except ValueError:
+                    pass            # over Python's digit limit: the long path reads it
+            args.append(_literal(a, ev, i + 1 if csv_row else ("args", i)))
+        elif isinstance(a, tuple):
+            args.append(tuple(x if isinstance(x, int) else _literal(x, ev, ("args", i)) for x in a))
+        else:
+            args.append(a)
+    return args
 
 
 def _call_text(name: str, arg_texts) -> str:

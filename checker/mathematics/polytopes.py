@@ -4,7 +4,8 @@ For a rational polytope P (convex hull of rational points, or a bounded set
 {x : a_i . x <= b_i} with rational a_i, b_i) and an integer t >= 0, the count
 L_P(t) = #(tP intersected with Z^d) is a quasi-polynomial in t of degree
 dim P whose period divides the least common denominator of the vertices
-(Ehrhart 1962; Beck & Robins, *Computing the Continuous Discretely*, ch. 3).
+(Ehrhart, C. R. Acad. Sci. Paris 254 (1962); Stanley, Enumerative
+Combinatorics vol. 1, ch. 4).
 
 Polygons are counted column by column: over each edge of the upper and lower
 boundary the column tops are floor((p x + q)/r), summed by the Euclid-like
@@ -12,7 +13,8 @@ floor-sum algorithm, so t = 10^30 costs a few dozen arithmetic steps.  In three
 and four dimensions the polytope is cut into slices of fixed first
 coordinate (bounds by Fourier-Motzkin elimination) down to polygons.
 
-Pick's theorem for the unit square, and the standard triangle (Beck & Robins, ch. 2):
+Pick's theorem (Pick 1899) for the unit square, and the standard triangle, whose
+t-th dilate holds binomial(t + 2, 2) points (common practice):
 
 >>> lattice_points(1, [[0, 0], [1, 0], [1, 1], [0, 1]])
 Fraction(4, 1)

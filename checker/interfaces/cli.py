@@ -32,6 +32,9 @@ def _limits_from(pairs: Sequence[str]) -> Limits:
         return DEFAULT_LIMITS.with_overrides(overrides)
     except KeyError as e:
         from dataclasses import fields
+        if len(e.args) > 1 and e.args[1]:
+            raise UsageError(f"the limit {e.args[0]} is now called {e.args[1]}: write --limit "
+                             f"{e.args[1]}=N") from None
         names = ", ".join(f.name.replace("_", "-") for f in fields(Limits))
         raise UsageError(f"there is no limit called {e.args[0]}; the limits are {names}") from None
 

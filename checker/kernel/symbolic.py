@@ -267,7 +267,7 @@ class SymbolicNormaliser:
         if is_symbolic(lower) or is_symbolic(upper) or lower.denominator != 1 or upper.denominator != 1:
             raise DomainError("the ends of a sum in a lemma must be whole numbers").at(node)
         count = max(0, upper.numerator - lower.numerator + 1)
-        self.limits.require("unfold_terms", count, f"a sum of {count} terms")
+        self.limits.require("definition_terms", count, f"a sum of {count} terms")
         saved = self.env.get(node.var, None)
         total: dict = {}
         try:

@@ -31,7 +31,7 @@ from math import floor as _floor, gcd
 
 from .elementary import as_integer, as_rational
 from ..foundation.errors import DomainError
-from .floor_sums import floor_sum
+from .floor_sums import staircase
 
 __all__ = ["lattice_points", "lattice_points_inequalities", "polygon_count", "convex_hull",
            "vertex_denominator", "check_points", "check_inequalities"]
@@ -107,7 +107,7 @@ def _sum_floor_line(p0, p1, lo: int, hi: int) -> int:
     sn, sd = slope.numerator, slope.denominator
     cn, cd = icept.numerator, icept.denominator
     p, q, r = sn * cd, cn * sd, sd * cd
-    return floor_sum(hi - lo + 1, p, p * lo + q, r)
+    return staircase(hi - lo + 1, p, p * lo + q, r)
 
 
 def _sum_boundary(chain, lo: int, hi: int, upper: bool) -> int:

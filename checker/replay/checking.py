@@ -22,7 +22,7 @@ from ..foundation.numbers import value_text
 from ..language.parsing import parse_certificate
 from .library import read_certificate_text, use_lemmas
 from .report import Failure, Report
-from .step_details import cited_rules, rule_details, short
+from .step_details import cited_rules, rule_details, short, unknown_rule
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
 
 __all__ = ["check_text", "check_file", "check_certificate"]
@@ -380,11 +380,7 @@ class _Replay:
                     return False, None, None
                 continue
             if not known_rule(ref.name):
-                near = difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
-                hint = f" (did you mean {near[0]}?)" if near else ""
-                self._fail(Failure(ref.pos.line, ref.pos.column, f"{where}: unknown rule '{ref.name}'{hint}",
-                                   ["`quasicert rules` lists the rules"], kind="error",
-                                   end_column=ref.pos.end_column))
+                self._fail(unknown_rule(ref, where))
                 return False, None, None
         self.normaliser.positions = {}
         next_nf = self.normaliser.normal(step.expr)

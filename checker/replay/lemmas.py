@@ -4,7 +4,7 @@ A lemma is accepted when
 1. every step of its chains follows by the cited rules, with the rules' side
    conditions derived from the assumptions (``kernel.check_step`` with
    ``symbolic_rules`` and ``assumptions``), and the last chain (of each residue
-   class) goes from the left side to the right side of `then`;
+   class) goes from the left side to the right side of the statement;
 2. a split covers every residue class the assumptions allow
    (``kernel.uncovered_residues``);
 3. a numeric second opinion agrees: the statement and every line of every
@@ -30,7 +30,7 @@ from ..kernel.verdicts import check_step, conclusion_problem, known_rule, uncove
 from ..foundation.numbers import value_text
 from ..kernel.rational_functions import RationalFunction
 from .report import Failure
-from .step_details import cited_rules, rule_details, short
+from .step_details import cited_rules, rule_details, short, unknown_rule
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
 from ..kernel.normal import sub
 from ..kernel.symbolic import SymbolicNormaliser, is_symbolic, line_text, value_label
@@ -247,11 +247,7 @@ class LemmaCheck:
                 rules.append(("claim", f"lemma {ref.label}"))
                 continue
             if not known_rule(ref.name):
-                near = difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
-                hint = f" (did you mean {near[0]}?)" if near else ""
-                self.replay._fail(Failure(ref.pos.line, ref.pos.column, f"{where}: unknown rule '{ref.name}'{hint}",
-                                          ["`quasicert rules` lists the rules"], kind="error",
-                                          end_column=ref.pos.end_column))
+                self.replay._fail(unknown_rule(ref, where))
                 return None, None
             rules.append((ref.name, ref.label))
         return rules, extra
@@ -325,9 +321,9 @@ class LemmaCheck:
         which = "start at the left side" if problem == "start" else "end at the right side"
         p = node.pos
         self.replay._fail(Failure(
-            p.line, p.column, f"lemma {self.stmt.name}{_case_words(case)}: the last chain must {which} of `then`",
+            p.line, p.column, f"lemma {self.stmt.name}{_case_words(case)}: the last chain must {which} of the statement",
             [f"the chain {'starts' if problem == 'start' else 'ends'} at: {short(line_text(have))}",
-             f"`then` has:        {short(line_text(want))}"], kind="failed",
+             f"the statement has: {short(line_text(want))}"], kind="failed",
             end_column=p.end_column if p.end_line == p.line else None))
         return False
 

@@ -22,7 +22,7 @@ from ..foundation.numbers import value_text
 from ..language.parsing import parse_certificate
 from .library import read_certificate_text, use_lemmas
 from .report import Failure, Report
-from .step_details import cited_rules, rule_details, short, unknown_rule
+from .step_details import cited_rules, lemma_statements, rule_details, short, unknown_rule
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
 
 __all__ = ["check_text", "check_file", "check_certificate"]
@@ -270,6 +270,7 @@ class _Replay:
         name = f"identity '{stmt.label}'" if stmt.label else "the identity"
         pos = stmt.rhs.pos
         if r.problem:
+            pos = stmt.lhs.pos if r.problem_side == "left" else pos     # the side the message names
             self._fail(Failure(pos.line, pos.column, f"{name}: {r.problem}", [f"inferred: {summary}"],
                                end_column=pos.end_column if pos.end_line == pos.line else None))
             return
@@ -393,8 +394,11 @@ class _Replay:
         if verdict.rule_ok and values_ok:
             self._ok()
             return True, next_nf, next_value
-        self._fail(self._step_failure(where, step, rules, verdict, values_ok, prev_nf, next_nf,
-                                      prev_value, next_value, positions))
+        failure = self._step_failure(where, step, rules, verdict, values_ok, prev_nf, next_nf,
+                                     prev_value, next_value, positions)
+        if not verdict.rule_ok:
+            failure.details[:0] = lemma_statements(step, facts, self.report.text, nf_text)
+        self._fail(failure)
         return False, next_nf, next_value
 
     def _lemma_fact(self, ref, where, facts):
@@ -427,15 +431,15 @@ class _Replay:
             if mark is not None:
                 line, column, end = mark
             if values_ok:
-                details.append(f"value check: passed (both lines are {short(value_text(prev_value))})")
+                details.append(f"value check: passed (both lines are {value_text(prev_value)})")
             else:
                 details.append("value check: failed too")
         else:
             message = f"{where}: the rule gives this line but the values differ (a checker bug: please report it)"
         if not values_ok:
-            details += [f"exact value (previous line): {short(value_text(prev_value))}",
-                        f"claimed value (this line):   {short(value_text(next_value))}",
-                        f"difference (claimed - exact): {short(value_text(next_value - prev_value))}"]
+            details += [f"exact value (previous line): {value_text(prev_value)}",
+                        f"claimed value (this line):   {value_text(next_value)}",
+                        f"difference (claimed - exact): {value_text(next_value - prev_value)}"]
         return Failure(line, column, message, details, kind="failed", end_column=end,
                        claimed=next_value, exact=prev_value)
 

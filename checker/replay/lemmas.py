@@ -30,7 +30,7 @@ from ..kernel.verdicts import check_step, conclusion_problem, known_rule, uncove
 from ..foundation.numbers import value_text
 from ..kernel.rational_functions import RationalFunction
 from .report import Failure
-from .step_details import cited_rules, rule_details, short, unknown_rule
+from .step_details import cited_rules, lemma_statements, rule_details, short, unknown_rule
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
 from ..kernel.normal import sub
 from ..kernel.symbolic import SymbolicNormaliser, is_symbolic, line_text, value_label
@@ -220,8 +220,9 @@ class LemmaCheck:
                                                                                       atom, target),
                                  multiplier_problem=lambda c: _multiplier_problem(facts, c))
             if not verdict.rule_ok:
-                self.replay._fail(self._step_failure(where, step, rules, verdict, prev, nxt,
-                                                     norm.positions, case))
+                failure = self._step_failure(where, step, rules, verdict, prev, nxt, norm.positions, case)
+                failure.details[:0] = lemma_statements(step, local, self.replay.report.text, line_text)
+                self.replay._fail(failure)
                 return None
             self.steps += 1
             prev = nxt
@@ -291,7 +292,7 @@ class LemmaCheck:
                 return [f"numerically: at {_env_text(env)} a line cannot be evaluated: {e.message}"]
             if a != b:
                 return [f"numerically the step is false too: at {_env_text(env)} the previous line is "
-                        f"{short(value_text(a))} and this line is {short(value_text(b))}"]
+                        f"{value_text(a)} and this line is {value_text(b)}"]
         if tried:
             return [f"numerically the two lines agree at {tried} instances: the step may be true, "
                     "but it does not follow by the rules cited"]
@@ -445,7 +446,7 @@ class LemmaCheck:
             return [f"a line cannot be evaluated there: {e.message}"]
         if va == vb:
             return []
-        return [f"left:  {short(value_text(va))}", f"right: {short(value_text(vb))}"]
+        return [f"left:  {value_text(va)}", f"right: {value_text(vb)}"]
 
     def _bug(self, node, message, details) -> bool:
         p = node.pos

@@ -11,7 +11,8 @@ from ..kernel.normal import atoms
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
 from .report import Failure
 
-__all__ = ["cited_rules", "rule_details", "closest_candidate", "short", "unknown_rule"]
+__all__ = ["cited_rules", "rule_details", "closest_candidate", "short", "unknown_rule", "lemma_statements",
+           "source_text"]
 
 #: rule names of earlier versions -> the name now
 FORMER_RULES = {"unfold": "definition"}
@@ -25,6 +26,28 @@ RULE_SYNONYMS = {
     "symmetry": "negate", "odd": "negate", "inversion": "inverse",
     "gcd": "common_factor", "cancel": "common_factor", "rademacher": "three_term",
 }
+
+
+def lemma_statements(step, facts, text: str, render) -> list:
+    """For each lemma a failed step cites: what it says at the values cited, as a detail line."""
+    out = []
+    for ref in step.rules:
+        key = f"lemma {ref.label}"
+        if ref.name != "lemma" or key not in facts:
+            continue
+        lhs, rhs = facts[key]
+        args = ", ".join(source_text(text, a) for a in ref.args)
+        out.append(f"lemma {ref.label}({args}) says: {short(render(lhs))} = {short(render(rhs))}")
+    return out
+
+
+def source_text(text: str, node) -> str:
+    """The text of a node as written, when it stands on one line."""
+    p = node.pos
+    lines = text.splitlines()
+    if p.line and p.line == p.end_line and p.line <= len(lines):
+        return lines[p.line - 1][p.column - 1:p.end_column - 1]
+    return "..."
 
 
 def unknown_rule(ref, where: str) -> Failure:

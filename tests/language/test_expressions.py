@@ -120,7 +120,7 @@ def test_cli_eval_error_is_not_a_traceback():
     code, out, err = run(["eval", "1 + 1", "dedekind(1, 0)"])
     assert code == 2
     assert out.splitlines() == ["2"]
-    assert err.splitlines()[0] == "expression 2:1:1: error: the second argument of dedekind must be a positive integer, not 0"
+    assert err.splitlines()[0] == "argument 2, column 1: error: the second argument of dedekind must be a positive integer, not 0"
     assert "Traceback" not in err
     assert err.splitlines()[2].strip() == "^" * len("dedekind(1, 0)")
 

@@ -398,8 +398,29 @@ class _Replay:
                                      prev_value, next_value, positions)
         if not verdict.rule_ok:
             failure.details[:0] = lemma_statements(step, facts, self.report.text, nf_text)
+            if values_ok:
+                failure.details += self._better_rules(prev_nf, next_nf, rules, facts)
         self._fail(failure)
         return False, next_nf, next_value
+
+    def _better_rules(self, prev_nf, next_nf, rules, facts) -> list:
+        """A rule list that gives the next line: one other rule, or the cited ones with one more
+        (`reciprocity, reduce` where `reciprocity` was written).  Only a suggestion: a certificate
+        that takes it is checked like any other."""
+        cited = [r for r in rules if r[0] != "claim"]
+        last = [r for r in rules if r[0] == "claim"]
+        names = [n for n in list(RULES) + ["value", "arithmetic"]]
+        tries = [[(n, None)] + last for n in names if [(n, None)] != cited]
+        for n in names:
+            for i in range(len(cited) + 1):
+                tries.append(cited[:i] + [(n, None)] + cited[i:] + last)
+        for candidate in tries:
+            try:
+                if check_step(prev_nf, next_nf, candidate, self._call, facts, self.limits).rule_ok:
+                    return [f"this line does follow by {cited_rules(candidate)}"]
+            except CertificateError:
+                continue
+        return []
 
     def _lemma_fact(self, ref, where, facts):
         """The facts with the lemma `ref` instantiated at numbers, or None after a failure."""

@@ -201,7 +201,9 @@ def test_a_wrong_periodic_value_is_caught_at_its_first_residue(parts, data):
 
 @pytest.mark.parametrize("text, message", [
     ("identity for n >= 0: 1/n = 0\n", "n stands in a denominator, so this is not a quasi-polynomial in n"),
-    ("identity for n >= 1: dedekind(1, n) = 0\n", "the second argument of dedekind must not depend on n"),
+    ("identity for n >= 1: dedekind(1, n) = 0\n", "the second argument of dedekind must not depend on n in an "
+     "identity, which needs a quasi-polynomial in n; a closed form for every n is proved with a lemma instead: "
+     "lemma NAME(n) for n >= 1: A = B, then its chains and `end`"),
     ("identity for n >= 0: 2^n = 1\n", "n stands in an exponent, so this is not a quasi-polynomial in n"),
     ("identity for n >= 0: frobenius([n, 3]) = 0\n", "quasicert does not know frobenius to be a quasi-polynomial in n"),
     ("identity for all n: partitions(n, [1, 2]) = floor(n/2) + 1\n",

@@ -479,6 +479,10 @@ def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> S
         missing = _missing_word(expected, text, e.line, e.column)
         if missing is not None:
             return missing
+        if tok.type in ("MOD", "OPEN_MOD") and tok.type not in expected and not expr_only:
+            return SyntaxProblem("a modulus belongs to a congruence, written `A == B mod M` or `A ≡ B (mod M)`; "
+                                 "with `=` the claim is an equality", e.line, e.column,
+                                 tok.end_column if tok.end_line == tok.line else None)
         shown = str(tok)
         if len(shown) > 30:
             shown = shown[:27] + "..."

@@ -111,6 +111,13 @@ def test_mod_in_parentheses_in_lemma_assumptions():
     assert check_text(text).ok
 
 
+def test_a_modulus_after_an_equality_says_to_write_a_congruence():
+    f = failure("claim 7 = 1 (mod 3)\n")
+    assert f.message == ("a modulus belongs to a congruence, written `A == B mod M` or `A ≡ B (mod M)`; "
+                         "with `=` the claim is an equality")
+    assert (f.line, f.column) == (1, 13)
+
+
 def test_a_call_of_mod_is_not_taken_for_the_notation():
     assert check_text("claim gcd(mod (7, 3), 2) = 1\nclaim 5 == mod(8, 3) mod 3\n").ok
 

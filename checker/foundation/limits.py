@@ -10,7 +10,10 @@ from dataclasses import dataclass, fields, replace
 
 from .errors import BudgetExceeded
 
-__all__ = ["Limits", "DEFAULT_LIMITS"]
+__all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES"]
+
+#: limits renamed since an earlier version: old name -> new name
+FORMER_NAMES = {"unfold_terms": "definition_terms"}
 
 
 @dataclass(frozen=True)
@@ -19,8 +22,8 @@ class Limits:
     integer_bits: int = 1_000_000
     #: length of any enumeration: O(k) sums, dynamic programming tables, residue tables
     terms: int = 3_000_000
-    #: terms an `unfold` step may write out
-    unfold_terms: int = 20_000
+    #: terms a `definition` step may write out
+    definition_terms: int = 20_000
     #: largest index of a Bernoulli number or polynomial
     bernoulli_index: int = 4_000
     #: length of a list literal
@@ -53,12 +56,12 @@ class Limits:
         for key, value in overrides.items():
             attr = key.replace("-", "_")
             if attr not in known:
-                raise KeyError(key)
+                raise KeyError(key, FORMER_NAMES.get(attr, "").replace("_", "-"))
             clean[attr] = value
         return replace(self, **clean)
 
 
-_UNITS = {"integer_bits": " bits", "terms": " steps", "unfold_terms": " terms",
+_UNITS = {"integer_bits": " bits", "terms": " steps", "definition_terms": " terms",
           "bernoulli_index": "", "list_length": " entries", "literal_digits": " digits",
           "nesting": " levels", "file_bytes": " bytes",
           "seconds": " seconds", "tokens": " tokens", "lemma_degree": ""}

@@ -11,9 +11,10 @@ True
 """
 from __future__ import annotations
 
+import re
 from fractions import Fraction  # noqa: F401  (the doctests use it)
 
-__all__ = ["atom_text", "int_text", "text_int", "value_text"]
+__all__ = ["abbreviate_numbers", "atom_text", "int_text", "text_int", "value_text"]
 
 _DIRECT_BITS = 12_000     # about 3600 digits: below Python's 4300-digit guard
 _DIRECT_DIGITS = 4_000
@@ -49,6 +50,20 @@ def value_text(v) -> str:
     if v.denominator == 1:
         return int_text(v.numerator)
     return f"{int_text(v.numerator)}/{int_text(v.denominator)}"
+
+
+_LONG_NUMBER = re.compile(r"\d{61,}")
+
+
+def abbreviate_numbers(text: str, ends: int = 20) -> str:
+    """`text` with every number of more than 60 digits shown by its first and last digits and its
+    digit count, for reports read by people (JSON and SARIF keep every digit).
+
+    >>> abbreviate_numbers("claimed " + "1" * 30 + "2" * 30 + "3" * 30)
+    'claimed 11111111111111111111...33333333333333333333 (90 digits)'
+    """
+    return _LONG_NUMBER.sub(lambda m: f"{m.group()[:ends]}...{m.group()[-ends:]} ({len(m.group()):,} digits)",
+                            text)
 
 
 def atom_text(atom) -> str:

@@ -127,10 +127,8 @@ class Certificate:
         >>> c.check().ok
         True
         """
-        lines = [f"lemma {name}({', '.join(params)}):"]
-        if assumptions:
-            lines.append("  given " + ", ".join(assumptions))
-        lines.append(f"  then {lhs} = {rhs}")
+        conditions = f" for {', '.join(assumptions)}" if assumptions else ""
+        lines = [f"lemma {name}({', '.join(params)}){conditions}:", f"  {lhs} = {rhs}"]
         lines.append(f"  chain {lhs}")
         for expression, rules in steps:
             cited = rules if isinstance(rules, str) else ", ".join(rules)

@@ -9,6 +9,8 @@
 from __future__ import annotations
 
 import argparse
+import os
+import re
 import sys
 from typing import Sequence
 
@@ -43,6 +45,9 @@ def _limits_from(pairs: Sequence[str]) -> Limits:
         return DEFAULT_LIMITS.with_overrides(overrides)
     except KeyError as e:
         from dataclasses import fields
+        if len(e.args) > 1 and e.args[1]:
+            raise UsageError(f"the limit {e.args[0]} is now called {e.args[1]}: write --limit "
+                             f"{e.args[1]}=N") from None
         names = ", ".join(f.name.replace("_", "-") for f in fields(Limits))
         raise UsageError(f"there is no limit called {e.args[0]}; the limits are {names}") from None
 
@@ -71,9 +76,18 @@ def _usage_eval() -> str:
             "Prints the exact value of each expression on its own line (p/q in lowest terms).")
 
 
+_UNKNOWN_NAME = re.compile(r"unknown name '([^']*)'(?: \(did you mean '[^']*'\?\))?: give it a value with `let` first")
+
+
 def _print_error(err: CertificateError, text: str, label: str, out) -> None:
-    where = f"{label}:{err.line}:{err.column}" if err.line else label
-    print(f"{where}: {err.kind}: {err.message}", file=out)
+    """`argument 4, column 12: syntax error: ...` and the marked text, for an expression typed
+    on the command line (where `let` does not exist)."""
+    where = label
+    if err.line:
+        where += (f", line {err.line}" if "\n" in text else "") + f", column {err.column}"
+    message = _UNKNOWN_NAME.sub(lambda m: f"unknown name '{m.group(1)}': an expression on the command line "
+                                f"has numbers, lists and function calls, no names", err.message)
+    print(f"{where}: {err.kind}: {message}", file=out)
     ctx = err.context(text)
     if ctx:
         print(ctx, file=out)
@@ -90,7 +104,7 @@ def _cmd_eval(args: Sequence[str], out, err) -> int:
         try:
             print(value_text(evaluate(text, limits=limits)), file=out)
         except CertificateError as e:
-            _print_error(e, text, f"expression {i}", err)
+            _print_error(e, text, f"argument {i}", err)
             status = EXIT_ERROR
     return status
 
@@ -360,11 +374,14 @@ def _emit(text: str, output, out) -> int:
 
 def _cmd_derive(ns, out, err) -> int:
     from .derive import derive
+    if ns.expression.strip().endswith(".qcert") or os.path.isfile(ns.expression):
+        raise UsageError(f"derive takes an expression such as \"dedekind(5, 17)\", not a file: it writes a "
+                         f"certificate; to check one, run quasicert check {ns.expression}")
     _refuse_overwrite(ns.output, ns.force)
     try:
         text = derive(ns.expression)
     except CertificateError as e:
-        _print_error(e, ns.expression, "expression", err)
+        _print_error(e, ns.expression, "the expression", err)
         return EXIT_ERROR
     return _emit(text, ns.output, out)
 

@@ -202,6 +202,21 @@ def derive_frobenius(parts, label: str = "derived") -> str:
         ",\n".join(reps)]) + "\n"
 
 
+def _refuse_names(expr) -> None:
+    """derive of a call with a name in it: numbers are needed, and a lemma is the tool for
+    a statement about every value of a parameter."""
+    from ..language import expressions as ex
+    stack = [expr]
+    while stack:
+        node = stack.pop()
+        if isinstance(node, ex.Name):
+            raise DomainError(f"derive needs numbers here, and '{node.name}' is a name: derive "
+                              f"{expr.name} at numbers (e.g. quasicert derive \"dedekind(5, 17)\"); a "
+                              f"statement for every {node.name} is written as a lemma, as in "
+                              "certificates/dedekind-lemmas.qcert").at(node)
+        stack.extend(ex.children(node))
+
+
 def derive(text: str) -> str:
     """A certificate for a call: dedekind(h, k), partitions(n, A), lattice_points(t, P), frobenius(A)."""
     expr = parse_expression(text)
@@ -210,6 +225,8 @@ def derive(text: str) -> str:
                           "e.g. quasicert derive \"dedekind(5, 17)\"").at(expr)
     from ..language import expressions as ex
     ev = Evaluator()
+    if expr.name != "frobenius" and expr.name not in ("partitions", "lattice_points", "lattice_points_in"):
+        _refuse_names(expr)
     if expr.name == "dedekind" and len(expr.args) == 2:
         h, k = [ev.value(a) for a in expr.args]
         if not (isinstance(h, Fraction) and isinstance(k, Fraction) and h.denominator == 1 == k.denominator):

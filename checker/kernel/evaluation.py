@@ -304,6 +304,13 @@ def _short(v: Fraction) -> str:
 
 
 def _unknown_function(name: str) -> str:
+    from .functions import FORMER_NAMES, LITERATURE_NAMES
+    if name in FORMER_NAMES:
+        return f"the function {name} is now called {FORMER_NAMES[name]} (same arguments)"
+    if name in LITERATURE_NAMES:
+        written, call = LITERATURE_NAMES[name]
+        return (f"unknown function '{name}': for {written} write {call}; `quasicert functions` "
+                "lists them")
     near = difflib.get_close_matches(name, list(REGISTRY), n=2)
     hint = f" (did you mean {' or '.join(near)}?)" if near else ""
     return f"unknown function '{name}'{hint}; `quasicert functions` lists them"

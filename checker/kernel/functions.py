@@ -22,7 +22,7 @@ from ..mathematics.bernoulli import bernoulli, bernoulli_polynomial, periodic_be
 from ..mathematics.dedekind import dedekind, dedekind_rademacher, generalized_dedekind
 from ..mathematics.elementary import binomial, ceil, floor, frac, gcd, lcm, mod, sawtooth
 from ..foundation.errors import CertificateError, DomainError
-from ..mathematics.floor_sums import floor_sum as _floor_sum
+from ..mathematics.floor_sums import staircase as _floor_sum
 from ..mathematics.fourier_dedekind import fourier_dedekind
 from ..mathematics.frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from ..foundation.limits import Limits
@@ -32,14 +32,37 @@ from ..mathematics.partitions import (partitions, partitions_extended, polynomia
                          quasipolynomial_cost, table_cost, check_parts)
 
 __all__ = [
-    "REGISTRY", "FunctionSpec",
+    "REGISTRY", "FunctionSpec", "FORMER_NAMES", "LITERATURE_NAMES",
     "sawtooth", "floor", "ceil", "frac", "mod", "gcd", "lcm", "binomial",
     "bernoulli", "bernoulli_polynomial", "periodic_bernoulli",
     "dedekind", "dedekind_rademacher", "generalized_dedekind", "fourier_dedekind",
     "partitions", "partitions_extended", "partitions_polynomial_part",
-    "frobenius", "nonrepresentable", "floor_sum", "periodic", "constituents",
+    "frobenius", "nonrepresentable", "staircase", "periodic", "constituents",
     "lattice_points", "lattice_points_in", "interior_lattice_points",
 ]
+
+
+#: function names of earlier versions -> the name now (same arguments)
+FORMER_NAMES = {"floor_sum": "staircase"}
+
+#: short names of the literature -> (how it is written there, the call here)
+LITERATURE_NAMES = {
+    "s": ("s(h, k)", "dedekind(h, k)"),
+    "S": ("s(h, k)", "dedekind(h, k)"),
+    "s_p": ("s_p(h, k)", "generalized_dedekind(p, h, k)"),
+    "sp": ("s_p(h, k)", "generalized_dedekind(p, h, k)"),
+    "s_n": ("s_n(a_1, ..., a_m; b)", "fourier_dedekind(n, [a_1, ..., a_m], b)"),
+    "p": ("p_A(n)", "partitions(n, A)"),
+    "p_A": ("p_A(n)", "partitions(n, A)"),
+    "P_A": ("P_A(n)", "partitions_extended(n, A)"),
+    "B": ("B_n", "bernoulli(n)"),
+    "B_n": ("B_n", "bernoulli(n)"),
+    "g": ("g(A)", "frobenius(A)"),
+    "L": ("L_P(t)", "lattice_points(t, P)"),
+    "L_P": ("L_P(t)", "lattice_points(t, P)"),
+    "binom": ("C(n, j)", "binomial(n, j)"),
+    "C": ("C(n, j)", "binomial(n, j)"),
+}
 
 
 def lattice_points_in(t, rows) -> Fraction:
@@ -47,15 +70,15 @@ def lattice_points_in(t, rows) -> Fraction:
     return lattice_points_inequalities(t, rows)
 
 
-def floor_sum(count, a, b, m) -> Fraction:
+def staircase(count, a, b, m) -> Fraction:
     """sum_{i=0}^{count-1} floor((a i + b)/m), for count >= 0 and m >= 1."""
     from ..mathematics.elementary import as_integer, as_positive
-    count = as_integer(count, "the first argument of floor_sum")
+    count = as_integer(count, "the first argument of staircase")
     if count < 0:
-        raise DomainError(f"the number of terms of floor_sum must be >= 0, not {count}")
-    return Fraction(_floor_sum(count, as_integer(a, "the second argument of floor_sum"),
-                               as_integer(b, "the third argument of floor_sum"),
-                               as_positive(m, "the fourth argument of floor_sum")))
+        raise DomainError(f"the number of terms of staircase must be >= 0, not {count}")
+    return Fraction(_floor_sum(count, as_integer(a, "the second argument of staircase"),
+                               as_integer(b, "the third argument of staircase"),
+                               as_positive(m, "the fourth argument of staircase")))
 
 
 def partitions_polynomial_part(n, parts) -> Fraction:
@@ -206,7 +229,7 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("gcd", "a, b, ...", "greatest common divisor", gcd, (1, 1000), True),
     _spec("lcm", "a, b, ...", "least common multiple", lcm, (1, 1000), True, _cost_lcm),
     _spec("binomial", "n, j", "n choose j", binomial, (2, 2), True, _cost_binomial),
-    _spec("floor_sum", "count, a, b, m", "sum_{i=0}^{count-1} floor((a i + b)/m)", floor_sum,
+    _spec("staircase", "count, a, b, m", "sum_{i=0}^{count-1} floor((a i + b)/m)", staircase,
           (4, 4), True, _cost_floor_sum),
     _spec("sawtooth", "x", "((x)) = x - floor(x) - 1/2, and 0 at integers", sawtooth, (1, 1)),
     _spec("bernoulli", "n [, x]", "the Bernoulli number B_n (B_1 = -1/2), or the polynomial B_n(x)",

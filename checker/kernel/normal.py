@@ -263,7 +263,7 @@ class Normaliser:
         if lower.denominator != 1 or upper.denominator != 1:
             raise DomainError("the ends of a sum must be integers").at(node)
         count = max(0, upper.numerator - lower.numerator + 1)
-        self.limits.require("unfold_terms", count, f"a sum of {count} terms")
+        self.limits.require("definition_terms", count, f"a sum of {count} terms")
         total: NF = {}
         for _ in binding(ev.env, node.var, range(lower.numerator, upper.numerator + 1)):
             total = add(total, self.normal(node.body))

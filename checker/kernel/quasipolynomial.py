@@ -223,7 +223,9 @@ def _linear(node, var, ev, integer: bool, what: str):
 
 def _constant(node, var, ev, what):
     if mentions(node, var):
-        _refuse(node, f"{what} must not depend on {var}")
+        _refuse(node, f"{what} must not depend on {var} in an identity, which needs a quasi-polynomial in "
+                      f"{var}; a closed form for every {var} is proved with a lemma instead: "
+                      f"lemma NAME({var}) for {var} >= 1: A = B, then its chains and `end`")
     return ev.value(node)
 
 
@@ -505,6 +507,7 @@ class IdentityResult:
     left: Optional[Fraction] = None
     right: Optional[Fraction] = None
     problem: str = ""                # a claimed period or degree that does not hold
+    problem_side: str = ""           # "left" or "right": the side that the problem is about
 
 
 def _values(node, var, ns, ev):
@@ -563,6 +566,6 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
         for node, s, side in ((lhs, left, "left"), (rhs, right, "right")):
             problem = _check_claimed(node, side, var, s, start, ev, p, d, limits)
             if problem:
-                result.ok, result.problem = False, problem
+                result.ok, result.problem, result.problem_side = False, problem, side
                 return result
     return result

@@ -242,13 +242,13 @@ def _three_term_mismatch(x, a, y, b, z, c):
     return None
 
 
-# -- unfold ------------------------------------------------------------------
+# -- definition --------------------------------------------------------------
 
-def _unfold(atom, target, limits):
+def _by_definition(atom, target, limits):
     name, args = atom
     if name == "dedekind":
         h, k = _dedekind_args(atom)
-        limits.require("unfold_terms", k, f"unfolding dedekind(h, {k})")
+        limits.require("definition_terms", k, f"writing dedekind(h, {k}) out by its definition")
         total: NF = {}
         for j in range(k):
             total = add(total, mul(_call("sawtooth", Fraction(j, k)), _call("sawtooth", Fraction(h * j, k))))
@@ -258,7 +258,7 @@ def _unfold(atom, target, limits):
         x, y = args[2], args[3]
         if k < 1 or isinstance(x, tuple) or isinstance(y, tuple):
             _refuse("dedekind_rademacher(h, k, x, y) needs k >= 1 and rational x, y")
-        limits.require("unfold_terms", k, f"unfolding a sum of {k} terms")
+        limits.require("definition_terms", k, f"writing out a sum of {k} terms")
         total = {}
         for j in range(k):
             total = add(total, mul(_call("sawtooth", h * (j + y) / k + x), _call("sawtooth", (j + y) / k)))
@@ -267,12 +267,12 @@ def _unfold(atom, target, limits):
         p, h, k = _integers(atom, ("order", "h", "k"))
         if k < 1 or p < 1:
             _refuse("generalized_dedekind(p, h, k) needs p >= 1 and k >= 1")
-        limits.require("unfold_terms", k, f"unfolding a sum of {k} terms")
+        limits.require("definition_terms", k, f"writing out a sum of {k} terms")
         total = {}
         for j in range(1, k):
             total = add(total, scale(_call("periodic_bernoulli", p, Fraction(h * j, k)), Fraction(j, k)))
         return [total]
-    _refuse(f"quasicert has no finite sum to unfold {name} into")
+    _refuse(f"quasicert knows no definition of {name} as a finite sum")
 
 
 RULES: dict[str, Rule] = {r.name: r for r in [
@@ -289,7 +289,7 @@ RULES: dict[str, Rule] = {r.name: r for r in [
     Rule("three_term", "s(b c*, a) + s(c a*, b) + s(a b*, c) = -1/4 + (a^2 + b^2 + c^2)/(12 a b c)",
          "a, b, c >= 1 pairwise coprime; c c* = 1 (mod a), a a* = 1 (mod b), b b* = 1 (mod c)",
          "Rademacher, Pacific J. Math. 4 (1954)", _three_term),
-    Rule("unfold", "s(h, k) = sum(j = 0 .. k-1, sawtooth(j/k) * sawtooth(h*j/k)); likewise "
-         "dedekind_rademacher and generalized_dedekind", "k within the unfold-terms limit",
-         "the definitions", _unfold),
+    Rule("definition", "s(h, k) = total(j from 0 to k-1: sawtooth(j/k) * sawtooth(h*j/k)); likewise "
+         "dedekind_rademacher and generalized_dedekind", "k within the definition-terms limit",
+         "the definitions", _by_definition),
 ]}

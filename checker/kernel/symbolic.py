@@ -76,6 +76,23 @@ def _const(v) -> dict:
     return {ONE: v} if v else {}
 
 
+def _split_hint(x) -> str:
+    """For x = (polynomial in one parameter with rational coefficients), the split by the common
+    denominator M of its coefficients fixes floor(x): that split in words, else ''."""
+    if not isinstance(x, RationalFunction) or len(x.names) != 1 or not x.is_polynomial:
+        return ""
+    from math import lcm
+    m = 1
+    for c in x.num.values():
+        m = lcm(m, Fraction(c).denominator)
+    if m < 2 or m > 10_000:
+        return ""
+    (var,) = tuple(x.names)
+    cases = ", ".join(f"`residue {r}:`" for r in range(min(m, 3))) + (", ..." if m > 3 else "")
+    return (f"; to fix it, split the proof by the residue of {var}: `split {var} mod {m}`, then {cases} "
+            f"each with its chain (classes the assumptions exclude are left out)")
+
+
 def floor_of(facts, v):
     """floor(v) when the assumptions fix it, else None.
 
@@ -267,7 +284,7 @@ class SymbolicNormaliser:
         if is_symbolic(lower) or is_symbolic(upper) or lower.denominator != 1 or upper.denominator != 1:
             raise DomainError("the ends of a sum in a lemma must be whole numbers").at(node)
         count = max(0, upper.numerator - lower.numerator + 1)
-        self.limits.require("unfold_terms", count, f"a sum of {count} terms")
+        self.limits.require("definition_terms", count, f"a sum of {count} terms")
         saved = self.env.get(node.var, None)
         total: dict = {}
         try:
@@ -317,7 +334,8 @@ class SymbolicNormaliser:
             f = floor_of(self.facts, x) if name != "ceil" else _neg_or_none(floor_of(self.facts, -x))
             if f is None:
                 raise DomainError(f"{name}({value_label(x)}) is not fixed by the assumptions "
-                                  f"(they do not determine the residue it depends on)").at(node)
+                                  f"(they do not determine the residue it depends on)"
+                                  f"{_split_hint(x)}").at(node)
             return _const(x - f if name == "frac" else f)
         if name == "mod":
             a, m = args
@@ -328,7 +346,7 @@ class SymbolicNormaliser:
             f = floor_of(self.facts, a / m)
             if f is None:
                 raise DomainError(f"mod({value_label(a)}, {value_label(m)}) is not fixed by the "
-                                  "assumptions").at(node)
+                                  f"assumptions{_split_hint(a / m)}").at(node)
             return _const(a - f * m)
         if name == "sawtooth" or (name == "periodic_bernoulli" and args[0] == 1):
             v = fixed_sawtooth(self.facts, args[-1])

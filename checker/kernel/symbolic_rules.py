@@ -228,15 +228,15 @@ def _three_term_problem(facts, x, a, y, b, z, c) -> str:
     return ""
 
 
-# -- unfold --------------------------------------------------------------------------
+# -- definition ----------------------------------------------------------------------
 
-def _unfold(facts, limits, atom, target):
+def _by_definition(facts, limits, atom, target):
     _only(atom, "dedekind")
     h, k = atom[1]
     if isinstance(k, RationalFunction):
-        _refuse("unfold needs a number k: a sum of k terms cannot be written out for a parameter k")
+        _refuse("definition needs a number k: a sum of k terms cannot be written out for a parameter k")
     k = k.numerator
-    limits.require("unfold_terms", k, f"unfolding dedekind(h, {k})")
+    limits.require("definition_terms", k, f"writing dedekind(h, {k}) out by its definition")
     total: dict = {}
     for j in range(1, k):
         other = fixed_sawtooth(facts, h * Fraction(j, k))
@@ -252,5 +252,5 @@ _RULES = {
     "inverse": _inverse,
     "common_factor": _common_factor,
     "three_term": _three_term,
-    "unfold": _unfold,
+    "definition": _by_definition,
 }

@@ -122,14 +122,14 @@ def _apply_value(x: NF, target: NF, call, refusals: list) -> list[NF]:
     return [y]
 
 
-def _apply_claim(x: NF, target: NF, fact, multiplier_problem=None) -> tuple[bool, str]:
+def _apply_claim(x: NF, target: NF, fact, multiplier_problem=None, what: str = "the claim") -> tuple[bool, str]:
     lhs, rhs = fact
     diff = sub(x, target)
     claim = sub(lhs, rhs)
     if not diff:
-        return False, "this step does not change the previous line, so it does not use the claim"
+        return False, f"this step does not change the previous line, so it does not use {what}"
     if not claim:
-        return False, "the claim is the identity 0 = 0 and cannot change a line"
+        return False, f"{what} is the identity 0 = 0 and cannot change a line"
     m = next(iter(claim))
     c = diff.get(m, Fraction(0)) / claim[m]
     if c and scale(claim, c) == diff:
@@ -139,7 +139,7 @@ def _apply_claim(x: NF, target: NF, fact, multiplier_problem=None) -> tuple[bool
             return False, why
         return True, ""
     return False, ("the difference between the previous line and this one is not a multiple of "
-                   "(left side - right side) of the claim")
+                   f"(left side - right side) of {what}")
 
 
 def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits,
@@ -168,7 +168,8 @@ def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits,
                 verdict.problem = f"there is no verified equality labelled '{label}' above this step"
                 return verdict
             for x in current:
-                ok, why = _apply_claim(x, nxt, facts[label], multiplier_problem)
+                what = label if label.startswith("lemma ") else f"claim {label}"
+                ok, why = _apply_claim(x, nxt, facts[label], multiplier_problem, what)
                 if ok:
                     verdict.rule_ok = True
                     return verdict

@@ -144,6 +144,11 @@ class _Build(Transformer):
         var, lower, upper, body = parts
         return self._made(ex.FiniteSum(str(var), lower, upper, body, _span(children)), [lower, upper, body])
 
+    def former_sum_start(self, children):
+        tok, var = children[0], children[2]
+        raise SyntaxProblem(f"a finite sum is written total({var} from A to B: BODY), not "
+                            f"sum({var} = A .. B, BODY)", tok.line, tok.column, tok.column + 3)
+
     def neg(self, children):
         return self._made(ex.Neg(children[1], _span(children)), [children[1]])
 
@@ -187,8 +192,11 @@ class _Build(Transformer):
         return st.Claim(label, lhs, relation, rhs, _span(children))
 
     def congruence(self, children):
-        _kw, label, lhs, _sym, rhs, _mod, modulus = children
+        _kw, label, lhs, _sym, rhs, modulus = children
         return st.Congruence(label, lhs, rhs, modulus, _span(children))
+
+    def modulus(self, children):
+        return next(c for c in children if not isinstance(c, Token))
 
     def chain(self, children):
         _kw, label, start, *steps = children
@@ -245,19 +253,29 @@ class _Build(Transformer):
     def lemma(self, children):
         name = str(children[1])
         params = children[3]
-        body = children[6:]
-        conditions = tuple(c for a in body if isinstance(a, list) for c in a)
-        then = next(i for i, c in enumerate(body) if isinstance(c, Token) and c == "then")
-        lhs, rhs = body[then + 1], body[then + 3]
-        chains = tuple(c for c in body[then + 4:] if isinstance(c, st.Chain))
+        conditions = tuple(children[5] or ())
+        lhs, rhs = children[7], children[9]
+        body = children[10:]
+        chains = tuple(c for c in body if isinstance(c, st.Chain))
         split = next((c for c in body if isinstance(c, st.Split)), None)
         return st.Lemma(name, params, conditions, lhs, rhs, chains, split, _span(children))
 
     def parameters(self, children):
         return tuple(str(c) for c in children)
 
-    def assume(self, children):
+    def assumptions(self, children):
         return [c for c in children if isinstance(c, st.Condition)]
+
+    def former_lemma_word(self, children):
+        tok = children[0]
+        if tok == "given":
+            message = ("`given` is no longer a word of the language: write the assumptions after the "
+                       "parameters, as in `lemma NAME(k) for k >= 1, k == 1 mod 2: A = B`, then the chains "
+                       "and `end`")
+        else:
+            message = ("`then` is no longer a word of the language: the statement follows the colon, as in "
+                       "`lemma NAME(k) for k >= 1: A = B`, then the chains and `end`")
+        raise SyntaxProblem(message, tok.line, tok.column, tok.end_column)
 
     def plain_condition(self, children):
         lhs, relation, rhs = children
@@ -323,11 +341,14 @@ _WORDS = {
     "INT": "a number", "NAME": "a name", "STRING": 'a quoted text "..."',
     "ADDOP": "'+' or '-'", "MULOP": "'*' or '/'", "MINUS": "'-'",
     "EQUALS": "'='", "LESS_EQUAL": "'<='", "GREATER_EQUAL": "'>='", "NOT_EQUAL": "'!='",
-    "LESS": "'<'", "GREATER": "'>'", "CONGRUENT": "'=='",
+    "LESS": "'<'", "GREATER": "'>'", "CONGRUENT": "'=='", "OPEN_MOD": "'(mod'",
     "$END": "the end of the text",
 }
 
 _STATEMENT_WORDS = {"title", "source", "let", "claim", "chain", "identity", "witness", "lemma", "use"}
+_OPERATORS = {"ADDOP", "MULOP", "MINUS", "CIRCUMFLEX"}
+_RELATIONS_T = {"EQUALS", "LESS_EQUAL", "GREATER_EQUAL", "NOT_EQUAL", "LESS", "GREATER"}
+_EXPRESSION_STARTS = {"INT", "NAME", "LPAR", "LSQB", "TOTAL", "SUM", "PLUS", "MINUS", "ADDOP"}
 
 
 def _describe_terminal(name: str) -> str:
@@ -344,9 +365,22 @@ def _describe_terminal(name: str) -> str:
 
 
 def _expected_words(expected) -> str:
-    words = sorted({_describe_terminal(t) for t in expected})
+    """What may come at a place, in words; long lists are told by kind, not token by token."""
+    names = set(expected)
+    groups = []
+    if len(names) > 6:
+        if names & _EXPRESSION_STARTS and names & (_EXPRESSION_STARTS - {"MINUS", "ADDOP", "PLUS"}):
+            groups.append("an expression")
+            names -= _EXPRESSION_STARTS
+        if len(names & _RELATIONS_T) > 1:
+            groups.append("a relation (= < <= > >= !=)")
+            names -= _RELATIONS_T
+    if len(names & _OPERATORS) > 1:
+        groups.append("an operator (+ - * / ^)")
+        names -= _OPERATORS
+    words = sorted({_describe_terminal(t) for t in names})
     statements = [w for w in words if w.strip("'") in _STATEMENT_WORDS]
-    others = [w for w in words if w not in statements]
+    others = groups + [w for w in words if w not in statements]
     if statements:
         others.append("a new statement (" + ", ".join(s.strip("'") for s in statements) + ")")
     if len(others) > 1:
@@ -372,38 +406,86 @@ def _end_position(text: str) -> tuple[int, int]:
     return len(lines), len(lines[-1]) + 1
 
 
+def _after_previous_word(text: str, line: int, column: int) -> tuple[int, int]:
+    """The place just after the last word before (line, column), comments skipped: where a
+    missing word belongs."""
+    lines = text.split("\n")
+    current = lines[line - 1][:column - 1] if line <= len(lines) else ""
+    for i in range(min(line, len(lines)), 0, -1):
+        src = current if i == line else lines[i - 1]
+        if "#" in src and '"' not in src:
+            src = src[:src.index("#")]
+        src = src.rstrip()
+        if src:
+            return i, len(src) + 1
+    return line, column
+
+
+def _missing_word(names: set, text: str, line: int, column: int):
+    """A SyntaxProblem naming the one word a statement lacks (`by`, `mod`), or None."""
+    if "BY" in names:
+        line, column = _after_previous_word(text, line, column)
+        return SyntaxProblem("this step lacks `by` and the rule that gives it: a step reads "
+                             "`= EXPR by RULE` (for example `= 1/17 by value`)", line, column)
+    if "MOD" in names and "OPEN_MOD" in names:
+        line, column = _after_previous_word(text, line, column)
+        return SyntaxProblem("`==` states a congruence, which needs `mod M` after its right side "
+                             "(`A == B mod M`, or `A ≡ B (mod M)`); an equality is written with one `=`",
+                             line, column)
+    return None
+
+
 _LANGUAGE_CHARACTERS = set("+-*/^()[],.=<>!:#\"_'\u2212\u00b7\u00d7\u2264\u2265\u2260\u2261 \t\r\n")
 _NOT_IN_EXPRESSIONS = {"EQUALS", "LESS_EQUAL", "GREATER_EQUAL", "NOT_EQUAL", "LESS", "GREATER",
                        "CONGRUENT", "BY", "MOD", "TITLE", "SOURCE", "LET", "CLAIM", "CHAIN", "COLON",
                        "IDENTITY", "WITNESS", "FOR", "ALL", "PERIOD", "DEGREE", "LEMMA", "USE",
-                       "THEN", "GIVEN", "SPLIT", "RESIDUE", "END"}
+                       "THEN", "GIVEN", "SPLIT", "RESIDUE", "END", "OPEN_MOD", "FROM", "TO"}
+
+
+def _acceptable(e: UnexpectedToken) -> set:
+    """The terminals the parser would really take here.  The LALR tables merge the
+    lookaheads of similar states (so `by` seems possible after any expression); trying
+    each terminal on a copy of the parser state tells them apart."""
+    try:
+        return set(e.interactive_parser.accepts()) or set(e.expected)
+    except Exception:      # noqa: BLE001 - the plain list is still a correct superset
+        return set(e.expected)
 
 
 def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> SyntaxProblem:
     if isinstance(e, UnexpectedEOF) or getattr(e, "line", -1) in (-1, None):
         line, column = _end_position(text)
-        expected = getattr(e, "expected", None) or []
-        return SyntaxProblem(f"the text ends too early: expected {_expected_words(_keep(expected, expr_only))}",
-                             line, column)
+        expected = _keep(getattr(e, "expected", None) or [], expr_only)
+        return _missing_word(expected, text, line, column) or \
+            SyntaxProblem(f"the text stops too early: it still needs {_expected_words(expected)}", line, column)
     if isinstance(e, UnexpectedCharacters):
         ch = text[e.pos_in_stream] if e.pos_in_stream < len(text) else ""
         shown = f"'{ch}'" if ch.isprintable() and ch != " " else f"U+{ord(ch):04X}" if ch else "?"
-        msg = f"unexpected character {shown}"
         allowed = [t for t in (getattr(e, "allowed", None) or ()) if t not in _NOT_IN_EXPRESSIONS or not expr_only]
-        if allowed and len(allowed) <= 6:
-            msg += f": expected {_expected_words(allowed)}"
-        elif ch and not (ch.isalnum() or ch in _LANGUAGE_CHARACTERS):
-            msg += " (it is not part of the language)"
+        if ch and not (ch.isalnum() or ch in _LANGUAGE_CHARACTERS):
+            msg = f"the character {shown} is not part of the language"
+        elif allowed:
+            msg = f"the character {shown} cannot come here: the text needs {_expected_words(allowed)} at this place"
+        else:
+            msg = f"the character {shown} cannot come here"
         return SyntaxProblem(msg, e.line, e.column, e.column + 1)
     if isinstance(e, UnexpectedToken):
         tok = e.token
+        expected = _keep(_acceptable(e), expr_only)
         if tok.type == "$END":
             line, column = _end_position(text)
-            return SyntaxProblem(f"the text ends too early: expected {_expected_words(_keep(e.expected, expr_only))}",
-                                 line, column)
+            return _missing_word(expected, text, line, column) or \
+                SyntaxProblem(f"the text stops too early: it still needs {_expected_words(expected)}", line, column)
+        missing = _missing_word(expected, text, e.line, e.column)
+        if missing is not None:
+            return missing
+        if tok.type in ("MOD", "OPEN_MOD") and tok.type not in expected and not expr_only:
+            return SyntaxProblem("a modulus belongs to a congruence, written `A == B mod M` or `A ≡ B (mod M)`; "
+                                 "with `=` the claim is an equality", e.line, e.column,
+                                 tok.end_column if tok.end_line == tok.line else None)
         shown = str(tok)
         if len(shown) > 30:
             shown = shown[:27] + "..."
-        return SyntaxProblem(f"unexpected '{shown}': expected {_expected_words(_keep(e.expected, expr_only))}",
+        return SyntaxProblem(f"'{shown}' cannot come here: the text needs {_expected_words(expected)} at this place",
                              e.line, e.column, (tok.end_column if tok.end_line == tok.line else None))
     return SyntaxProblem(str(e), getattr(e, "line", None), getattr(e, "column", None))

@@ -11,17 +11,17 @@ roles of the axes (the lattice points under the line counted column by column
 or row by row).  The steps are recorded going down and combined coming back,
 so the depth of the reduction is not bounded by Python's recursion limit.
 
->>> floor_sum(10, 3, 0, 4)          # floor(0/4)+floor(3/4)+...+floor(27/4)
+>>> staircase(10, 3, 0, 4)          # floor(0/4)+floor(3/4)+...+floor(27/4)
 30
 >>> floor_sums(4, 7, 3, 5)          # floors 2, 3, 5, 6, 7, 9
 (32, 104, 204)
 """
 from __future__ import annotations
 
-__all__ = ["floor_sum", "floor_sums"]
+__all__ = ["staircase", "floor_sums"]
 
 
-def floor_sum(count: int, a: int, b: int, c: int) -> int:
+def staircase(count: int, a: int, b: int, c: int) -> int:
     """sum_{i=0}^{count-1} floor((a i + b)/c), for count >= 0 and c >= 1."""
     if count <= 0:
         return 0

@@ -9,7 +9,7 @@ r mod a_1 (a_1 = min A): g = max_r n_r - a_1 and genus = sum_r floor(n_r / a_1)
 method of Boecker & Liptak (Algorithmica 48, 2007) in O(d a_1) steps.
 
 Sylvester (1884): g(a, b) = ab - a - b and genus (a-1)(b-1)/2.  The set
-{6, 9, 20} (from memory: the "McNugget number") has g = 43:
+{6, 9, 20} has g = 43 (OEIS A065003):
 
 >>> frobenius([6, 9, 20]), frobenius([5, 7]), nonrepresentable_count([5, 7])
 (Fraction(43, 1), Fraction(23, 1), Fraction(12, 1))

@@ -6,8 +6,8 @@ For positive integers A = [a_1, ..., a_d] (repeats allowed),
 
 the coefficient of x^n in 1/prod_i (1 - x^(a_i)); p_A(n) = 0 for n < 0.  It
 agrees for n > -(a_1 + ... + a_d) with a quasi-polynomial P_A of degree d - 1
-and period lcm(A) (Beck & Robins, *Computing the Continuous Discretely*, ch. 1
-and 8), obtained from the partial fractions of the generating function:
+and period lcm(A) (Bell, Amer. J. Math. 65 (1943); Sylvester (1857) for the
+waves W_b; Stanley, Enumerative Combinatorics vol. 1, ch. 4), obtained from the partial fractions of the generating function:
 
     P_A(n) = sum over b dividing some a_i of W_b(n),
     W_b(n) = -sum_{xi primitive b-th root of 1} Res_{z=xi} z^(-n-1) / prod_i (1 - z^(a_i)).

@@ -4,7 +4,8 @@ For a rational polytope P (convex hull of rational points, or a bounded set
 {x : a_i . x <= b_i} with rational a_i, b_i) and an integer t >= 0, the count
 L_P(t) = #(tP intersected with Z^d) is a quasi-polynomial in t of degree
 dim P whose period divides the least common denominator of the vertices
-(Ehrhart 1962; Beck & Robins, *Computing the Continuous Discretely*, ch. 3).
+(Ehrhart, C. R. Acad. Sci. Paris 254 (1962); Stanley, Enumerative
+Combinatorics vol. 1, ch. 4).
 
 Polygons are counted column by column: over each edge of the upper and lower
 boundary the column tops are floor((p x + q)/r), summed by the Euclid-like
@@ -12,7 +13,8 @@ floor-sum algorithm, so t = 10^30 costs a few dozen arithmetic steps.  In three
 and four dimensions the polytope is cut into slices of fixed first
 coordinate (bounds by Fourier-Motzkin elimination) down to polygons.
 
-Pick's theorem for the unit square, and the standard triangle (Beck & Robins, ch. 2):
+Pick's theorem (Pick 1899) for the unit square, and the standard triangle, whose
+t-th dilate holds binomial(t + 2, 2) points (common practice):
 
 >>> lattice_points(1, [[0, 0], [1, 0], [1, 1], [0, 1]])
 Fraction(4, 1)
@@ -29,7 +31,7 @@ from math import floor as _floor, gcd
 
 from .elementary import as_integer, as_rational
 from ..foundation.errors import DomainError
-from .floor_sums import floor_sum
+from .floor_sums import staircase
 
 __all__ = ["lattice_points", "lattice_points_inequalities", "polygon_count", "convex_hull",
            "vertex_denominator", "check_points", "check_inequalities"]
@@ -105,7 +107,7 @@ def _sum_floor_line(p0, p1, lo: int, hi: int) -> int:
     sn, sd = slope.numerator, slope.denominator
     cn, cd = icept.numerator, icept.denominator
     p, q, r = sn * cd, cn * sd, sd * cd
-    return floor_sum(hi - lo + 1, p, p * lo + q, r)
+    return staircase(hi - lo + 1, p, p * lo + q, r)
 
 
 def _sum_boundary(chain, lo: int, hi: int, upper: bool) -> int:

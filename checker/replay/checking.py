@@ -22,7 +22,7 @@ from ..foundation.numbers import value_text
 from ..language.parsing import parse_certificate
 from .library import read_certificate_text, use_lemmas
 from .report import Failure, Report
-from .step_details import cited_rules, rule_details, short
+from .step_details import cited_rules, lemma_statements, rule_details, short, unknown_rule
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
 
 __all__ = ["check_text", "check_file", "check_certificate"]
@@ -270,6 +270,7 @@ class _Replay:
         name = f"identity '{stmt.label}'" if stmt.label else "the identity"
         pos = stmt.rhs.pos
         if r.problem:
+            pos = stmt.lhs.pos if r.problem_side == "left" else pos     # the side the message names
             self._fail(Failure(pos.line, pos.column, f"{name}: {r.problem}", [f"inferred: {summary}"],
                                end_column=pos.end_column if pos.end_line == pos.line else None))
             return
@@ -380,11 +381,7 @@ class _Replay:
                     return False, None, None
                 continue
             if not known_rule(ref.name):
-                near = difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
-                hint = f" (did you mean {near[0]}?)" if near else ""
-                self._fail(Failure(ref.pos.line, ref.pos.column, f"{where}: unknown rule '{ref.name}'{hint}",
-                                   ["`quasicert rules` lists the rules"], kind="error",
-                                   end_column=ref.pos.end_column))
+                self._fail(unknown_rule(ref, where))
                 return False, None, None
         self.normaliser.positions = {}
         next_nf = self.normaliser.normal(step.expr)
@@ -397,9 +394,33 @@ class _Replay:
         if verdict.rule_ok and values_ok:
             self._ok()
             return True, next_nf, next_value
-        self._fail(self._step_failure(where, step, rules, verdict, values_ok, prev_nf, next_nf,
-                                      prev_value, next_value, positions))
+        failure = self._step_failure(where, step, rules, verdict, values_ok, prev_nf, next_nf,
+                                     prev_value, next_value, positions)
+        if not verdict.rule_ok:
+            failure.details[:0] = lemma_statements(step, facts, self.report.text, nf_text)
+            if values_ok:
+                failure.details += self._better_rules(prev_nf, next_nf, rules, facts)
+        self._fail(failure)
         return False, next_nf, next_value
+
+    def _better_rules(self, prev_nf, next_nf, rules, facts) -> list:
+        """A rule list that gives the next line: one other rule, or the cited ones with one more
+        (`reciprocity, reduce` where `reciprocity` was written).  Only a suggestion: a certificate
+        that takes it is checked like any other."""
+        cited = [r for r in rules if r[0] != "claim"]
+        last = [r for r in rules if r[0] == "claim"]
+        names = [n for n in list(RULES) + ["value", "arithmetic"]]
+        tries = [[(n, None)] + last for n in names if [(n, None)] != cited]
+        for n in names:
+            for i in range(len(cited) + 1):
+                tries.append(cited[:i] + [(n, None)] + cited[i:] + last)
+        for candidate in tries:
+            try:
+                if check_step(prev_nf, next_nf, candidate, self._call, facts, self.limits).rule_ok:
+                    return [f"this line does follow by {cited_rules(candidate)}"]
+            except CertificateError:
+                continue
+        return []
 
     def _lemma_fact(self, ref, where, facts):
         """The facts with the lemma `ref` instantiated at numbers, or None after a failure."""
@@ -431,15 +452,15 @@ class _Replay:
             if mark is not None:
                 line, column, end = mark
             if values_ok:
-                details.append(f"value check: passed (both lines are {short(value_text(prev_value))})")
+                details.append(f"value check: passed (both lines are {value_text(prev_value)})")
             else:
                 details.append("value check: failed too")
         else:
             message = f"{where}: the rule gives this line but the values differ (a checker bug: please report it)"
         if not values_ok:
-            details += [f"exact value (previous line): {short(value_text(prev_value))}",
-                        f"claimed value (this line):   {short(value_text(next_value))}",
-                        f"difference (claimed - exact): {short(value_text(next_value - prev_value))}"]
+            details += [f"exact value (previous line): {value_text(prev_value)}",
+                        f"claimed value (this line):   {value_text(next_value)}",
+                        f"difference (claimed - exact): {value_text(next_value - prev_value)}"]
         return Failure(line, column, message, details, kind="failed", end_column=end,
                        claimed=next_value, exact=prev_value)
 

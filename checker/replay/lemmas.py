@@ -4,7 +4,7 @@ A lemma is accepted when
 1. every step of its chains follows by the cited rules, with the rules' side
    conditions derived from the assumptions (``kernel.check_step`` with
    ``symbolic_rules`` and ``assumptions``), and the last chain (of each residue
-   class) goes from the left side to the right side of `then`;
+   class) goes from the left side to the right side of the statement;
 2. a split covers every residue class the assumptions allow
    (``kernel.uncovered_residues``);
 3. a numeric second opinion agrees: the statement and every line of every
@@ -30,7 +30,7 @@ from ..kernel.verdicts import check_step, conclusion_problem, known_rule, uncove
 from ..foundation.numbers import value_text
 from ..kernel.rational_functions import RationalFunction
 from .report import Failure
-from .step_details import cited_rules, rule_details, short
+from .step_details import cited_rules, lemma_statements, rule_details, short, unknown_rule
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
 from ..kernel.normal import sub
 from ..kernel.symbolic import SymbolicNormaliser, is_symbolic, line_text, value_label
@@ -220,8 +220,9 @@ class LemmaCheck:
                                                                                       atom, target),
                                  multiplier_problem=lambda c: _multiplier_problem(facts, c))
             if not verdict.rule_ok:
-                self.replay._fail(self._step_failure(where, step, rules, verdict, prev, nxt,
-                                                     norm.positions, case))
+                failure = self._step_failure(where, step, rules, verdict, prev, nxt, norm.positions, case)
+                failure.details[:0] = lemma_statements(step, local, self.replay.report.text, line_text)
+                self.replay._fail(failure)
                 return None
             self.steps += 1
             prev = nxt
@@ -247,11 +248,7 @@ class LemmaCheck:
                 rules.append(("claim", f"lemma {ref.label}"))
                 continue
             if not known_rule(ref.name):
-                near = difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
-                hint = f" (did you mean {near[0]}?)" if near else ""
-                self.replay._fail(Failure(ref.pos.line, ref.pos.column, f"{where}: unknown rule '{ref.name}'{hint}",
-                                          ["`quasicert rules` lists the rules"], kind="error",
-                                          end_column=ref.pos.end_column))
+                self.replay._fail(unknown_rule(ref, where))
                 return None, None
             rules.append((ref.name, ref.label))
         return rules, extra
@@ -295,7 +292,7 @@ class LemmaCheck:
                 return [f"numerically: at {_env_text(env)} a line cannot be evaluated: {e.message}"]
             if a != b:
                 return [f"numerically the step is false too: at {_env_text(env)} the previous line is "
-                        f"{short(value_text(a))} and this line is {short(value_text(b))}"]
+                        f"{value_text(a)} and this line is {value_text(b)}"]
         if tried:
             return [f"numerically the two lines agree at {tried} instances: the step may be true, "
                     "but it does not follow by the rules cited"]
@@ -325,9 +322,9 @@ class LemmaCheck:
         which = "start at the left side" if problem == "start" else "end at the right side"
         p = node.pos
         self.replay._fail(Failure(
-            p.line, p.column, f"lemma {self.stmt.name}{_case_words(case)}: the last chain must {which} of `then`",
+            p.line, p.column, f"lemma {self.stmt.name}{_case_words(case)}: the last chain must {which} of the statement",
             [f"the chain {'starts' if problem == 'start' else 'ends'} at: {short(line_text(have))}",
-             f"`then` has:        {short(line_text(want))}"], kind="failed",
+             f"the statement has: {short(line_text(want))}"], kind="failed",
             end_column=p.end_column if p.end_line == p.line else None))
         return False
 
@@ -449,7 +446,7 @@ class LemmaCheck:
             return [f"a line cannot be evaluated there: {e.message}"]
         if va == vb:
             return []
-        return [f"left:  {short(value_text(va))}", f"right: {short(value_text(vb))}"]
+        return [f"left:  {value_text(va)}", f"right: {value_text(vb)}"]
 
     def _bug(self, node, message, details) -> bool:
         p = node.pos

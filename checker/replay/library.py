@@ -34,11 +34,11 @@ def resolve_use(using: str, target: str) -> Path:
     if not target.endswith(".qcert"):
         if not _BUNDLED_NAME.fullmatch(target):
             raise CertificateError(f"'{target}' is not a bundled certificate name (lower-case letters, digits "
-                                   "and '-'); a file beside this one ends in .qcert")
+                                   f"and '-'){_bundled_hint(target)}; a file beside this one ends in .qcert")
         path = resource_dir("checker.certificates", "certificates") / f"{target}.qcert"
         if not path.is_file():
-            raise CertificateError(f"there is no bundled certificate '{target}'; `quasicert check` with no "
-                                   "path lists and checks them")
+            raise CertificateError(f"there is no bundled certificate '{target}'{_bundled_hint(target)}; "
+                                   "`quasicert check` with no path lists and checks them")
         return path.resolve()
     parts = PurePosixPath(target).parts
     if "\\" in target or target.startswith("/") or ".." in parts or not parts or ":" in target:
@@ -52,6 +52,16 @@ def resolve_use(using: str, target: str) -> Path:
     if base != path and base not in path.parents:
         raise CertificateError(f"'{target}' leads outside this certificate's folder")
     return path
+
+
+def _bundled_hint(target: str) -> str:
+    """` (did you mean "NAME"?)` for the bundled certificate closest to `target`, or ''."""
+    import difflib
+    folder = resource_dir("checker.certificates", "certificates")
+    names = sorted(p.stem for p in folder.glob("*.qcert"))
+    plain = re.sub(r"[^a-z0-9]+", "-", target.lower()).strip("-")
+    near = [plain] if plain in names else difflib.get_close_matches(plain, names, n=1)
+    return f' (did you mean "{near[0]}"?)' if near else ""
 
 
 def read_certificate_text(path: Path, limits: Limits = DEFAULT_LIMITS) -> str:

@@ -9,6 +9,8 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Optional
 
+from ..foundation.numbers import abbreviate_numbers
+
 __all__ = ["Failure", "Report", "render_failure", "render_report", "summary_line"]
 
 
@@ -80,10 +82,11 @@ def _marked_line(text: str, f: Failure) -> list[str]:
 
 
 def render_failure(report: Report, f: Failure) -> str:
+    """The failure as people read it; numbers of more than 60 digits are abbreviated."""
     where = f"{report.name}:{f.line}:{f.column}" if f.line else report.name
-    out = [f"{where}: {f.kind}: {f.message}"]
+    out = [f"{where}: {f.kind}: {abbreviate_numbers(f.message)}"]
     out += _marked_line(report.text, f)
-    out += [f"  {d}" for d in f.details]
+    out += [f"  {abbreviate_numbers(d)}" for d in f.details]
     if f.source_note:
         out.append(f"  source: {f.source_note}")
     return "\n".join(out)

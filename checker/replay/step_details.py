@@ -4,10 +4,64 @@ Shared by the replay of numeric chains (``checking``) and of lemmas (``lemmas``)
 """
 from __future__ import annotations
 
+import difflib
+
 from ..foundation.numbers import atom_text
 from ..kernel.normal import atoms
+from ..kernel.rules import RULES, WHOLE_LINE_RULES
+from .report import Failure
 
-__all__ = ["cited_rules", "rule_details", "closest_candidate", "short"]
+__all__ = ["cited_rules", "rule_details", "closest_candidate", "short", "unknown_rule", "lemma_statements",
+           "source_text"]
+
+#: rule names of earlier versions -> the name now
+FORMER_RULES = {"unfold": "definition"}
+
+#: words a writer may reach for -> the rule that does it here
+RULE_SYNONYMS = {
+    "algebra": "arithmetic", "simplify": "arithmetic", "expand": "arithmetic", "ring": "arithmetic",
+    "compute": "value", "evaluate": "value", "eval": "value", "calculation": "value",
+    "def": "definition", "defn": "definition", "expand_definition": "definition",
+    "periodicity": "reduce", "mod": "reduce", "reduction": "reduce",
+    "symmetry": "negate", "odd": "negate", "inversion": "inverse",
+    "gcd": "common_factor", "cancel": "common_factor", "rademacher": "three_term",
+}
+
+
+def lemma_statements(step, facts, text: str, render) -> list:
+    """For each lemma a failed step cites: what it says at the values cited, as a detail line."""
+    out = []
+    for ref in step.rules:
+        key = f"lemma {ref.label}"
+        if ref.name != "lemma" or key not in facts:
+            continue
+        lhs, rhs = facts[key]
+        args = ", ".join(source_text(text, a) for a in ref.args)
+        out.append(f"lemma {ref.label}({args}) says: {short(render(lhs))} = {short(render(rhs))}")
+    return out
+
+
+def source_text(text: str, node) -> str:
+    """The text of a node as written, when it stands on one line."""
+    p = node.pos
+    lines = text.splitlines()
+    if p.line and p.line == p.end_line and p.line <= len(lines):
+        return lines[p.line - 1][p.column - 1:p.end_column - 1]
+    return "..."
+
+
+def unknown_rule(ref, where: str) -> Failure:
+    """The refusal of a rule name that is not one, with the rule that was most likely meant."""
+    if ref.name in FORMER_RULES:
+        new = FORMER_RULES[ref.name]
+        message = f"{where}: the rule '{ref.name}' is now called {new}: write `by {new}`"
+    else:
+        near = [RULE_SYNONYMS[ref.name.lower()]] if ref.name.lower() in RULE_SYNONYMS else \
+            difflib.get_close_matches(ref.name, list(RULES) + list(WHOLE_LINE_RULES), n=1)
+        hint = f" (did you mean {near[0]}?)" if near else ""
+        message = f"{where}: unknown rule '{ref.name}'{hint}"
+    return Failure(ref.pos.line, ref.pos.column, message, ["`quasicert rules` lists the rules"],
+                   kind="error", end_column=ref.pos.end_column)
 
 
 def cited_rules(rules) -> str:

@@ -20,7 +20,7 @@ CASES = {
     "3 million open parentheses": "claim " + "(" * 3_000_000 + "1\n",
     "exponent tower 10^10^10": "claim 10^10^10 = 1\n",
     "largest allowed power 2^999999": "claim 2^999999 > 1\n",
-    "unfold of dedekind(1, 10^9)": "chain dedekind(1, 10^9)\n  = 0 by unfold\n",
+    "dedekind(1, 10^9) by definition": "chain dedekind(1, 10^9)\n  = 0 by definition\n",
     "partition table at the budget": "claim partitions(1000000, [1, 2, 3]) > 0\n",
     "3.5 MB of claims": "claim 12345678901234567890 * 3 = 37037036703703703670\n" * 60_000,
 }

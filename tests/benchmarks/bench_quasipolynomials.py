@@ -13,7 +13,7 @@ sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 from checker import check_text  # noqa: E402
 from checker.interfaces.derive import derive_partitions  # noqa: E402
-from checker.mathematics.floor_sums import floor_sum  # noqa: E402
+from checker.mathematics.floor_sums import staircase  # noqa: E402
 from checker.mathematics.partitions import PartitionQuasiPolynomial, partitions_by_table  # noqa: E402
 from checker.mathematics.polytopes import lattice_points  # noqa: E402
 
@@ -56,7 +56,7 @@ def bench_derive(parts):
 def bench_lattice():
     pts = [[0, 0], [Fraction(7, 3), Fraction(1, 2)], [1, Fraction(9, 4)], [Fraction(-5, 6), Fraction(4, 5)]]
     seconds, _ = timed(lambda: lattice_points(10**30, pts), repeat=20)
-    ref, _ = timed(lambda: floor_sum(10**30, 7 * 10**29 + 3, 5, 3 * 10**28 + 7), repeat=20)
+    ref, _ = timed(lambda: staircase(10**30, 7 * 10**29 + 3, 5, 3 * 10**28 + 7), repeat=20)
     print(f"  lattice points of a rational quadrilateral at t = 10^30: {seconds * 1e3:.3f} ms (goal < 10 ms); "
           f"one floor sum of that size {ref * 1e3:.3f} ms; ratio {seconds / ref:.1f}x")
 

@@ -281,7 +281,7 @@ def test_header_names_are_checked_against_the_parameters(tmp_path, header, ok):
 
 
 def test_header_names_of_list_parameters_and_mixed_tables(tmp_path):
-    # p_{1,2,3}(10) = 14 (OEIS A001399), g(6, 9, 20) = 43 (OEIS A065033 context: McNugget number, from memory)
+    # p_{1,2,3}(10) = 14 (OEIS A001399), g(6, 9, 20) = 43 (OEIS A065003)
     path = tmp_path / "t.csv"
     path.write_text('function,n,A,value\npartitions,10,"[1, 2, 3]",14\n')
     assert check_table(path).ok

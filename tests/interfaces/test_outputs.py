@@ -108,7 +108,7 @@ def test_pytest_plugin_collects_certificates(pytester):
 
 def test_pytest_plugin_collects_lemmas_and_uses(pytester):
     pytester.makefile(".qcert", lemmas='use "dedekind-lemmas"\n'
-                      "lemma wrong(k):\n  given k >= 1\n  then dedekind(k, 3) = dedekind(1, 3)\n"
+                      "lemma wrong(k) for k >= 1:\n  dedekind(k, 3) = dedekind(1, 3)\n"
                       "  chain dedekind(k, 3) = dedekind(1, 3) by reduce\nend\n")
     result = pytester.runpytest(*_plugin_args(), "--qcert", "-v")
     result.assert_outcomes(passed=1, failed=1)

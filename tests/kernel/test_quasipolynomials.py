@@ -66,14 +66,15 @@ def test_sylvester_witnesses():
         assert check_text(text).ok
 
 
-def test_chicken_nugget_witness():
-    # {6, 9, 20}: 43 (from memory)
+def test_witness_for_6_9_20():
+    # {6, 9, 20}: 43 (OEIS A065003)
     text = derive_frobenius([6, 9, 20])
     assert "frobenius([6, 9, 20]) = 43:" in text and check_text(text).ok
 
 
 def test_ehrhart_reciprocity_of_partition_functions():
-    # Beck & Robins ch. 4 (Ehrhart-Macdonald-type reciprocity): P_A(-n) = (-1)^(d-1) P_A(n - sum A)
+    # reciprocity of rational generating functions (Stanley, Adv. Math. 14 (1974); Popoviciu (1953)
+    # for two parts): P_A(-n) = (-1)^(d-1) P_A(n - sum A)
     text = ("identity for all n: partitions_extended(-n, [4, 9, 11]) = partitions_extended(n - 24, [4, 9, 11])\n"
             "identity for all n: partitions_extended(-n, [2, 3, 3, 5]) = -partitions_extended(n - 13, [2, 3, 3, 5])\n")
     assert check_text(text).ok
@@ -99,7 +100,7 @@ def test_pick_and_ehrhart_for_lattice_polygons():
 
 @pytest.mark.parametrize("d", [2, 3, 4])
 def test_standard_simplex(d):
-    # Beck & Robins, ch. 2: the standard simplex has Ehrhart polynomial binomial(t + d, d)
+    # the standard simplex has Ehrhart polynomial binomial(t + d, d) (Ehrhart, C. R. Acad. Sci. Paris 254 (1962))
     rows = [[-1 if j == i else 0 for j in range(d)] + [0] for i in range(d)] + [[1] * d + [1]]
     for t in range(0, 12):
         assert lattice_points_inequalities(t, rows) == comb(t + d, d)
@@ -200,7 +201,9 @@ def test_a_wrong_periodic_value_is_caught_at_its_first_residue(parts, data):
 
 @pytest.mark.parametrize("text, message", [
     ("identity for n >= 0: 1/n = 0\n", "n stands in a denominator, so this is not a quasi-polynomial in n"),
-    ("identity for n >= 1: dedekind(1, n) = 0\n", "the second argument of dedekind must not depend on n"),
+    ("identity for n >= 1: dedekind(1, n) = 0\n", "the second argument of dedekind must not depend on n in an "
+     "identity, which needs a quasi-polynomial in n; a closed form for every n is proved with a lemma instead: "
+     "lemma NAME(n) for n >= 1: A = B, then its chains and `end`"),
     ("identity for n >= 0: 2^n = 1\n", "n stands in an exponent, so this is not a quasi-polynomial in n"),
     ("identity for n >= 0: frobenius([n, 3]) = 0\n", "quasicert does not know frobenius to be a quasi-polynomial in n"),
     ("identity for all n: partitions(n, [1, 2]) = floor(n/2) + 1\n",
@@ -262,7 +265,7 @@ def test_interior_counts_against_brute_force(pts, t):
 
 
 def test_ehrhart_macdonald_reciprocity_for_random_rational_triangles():
-    # Ehrhart-Macdonald reciprocity (Beck & Robins, ch. 4): L_interior(t) = L_P(-t) for t >= 1,
+    # Ehrhart-Macdonald reciprocity (Macdonald, J. London Math. Soc. (2) 4 (1971)): L_interior(t) = L_P(-t) for t >= 1,
     # with L_P's quasi-polynomial written out by derive
     from checker.interfaces.derive import derive
     rng = random.Random(11)

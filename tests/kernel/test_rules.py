@@ -95,8 +95,8 @@ def test_three_term_keeps_value(triple):
 
 
 @given(small, st.integers(1, 60))
-def test_unfold_keeps_value(h, k):
-    (r,) = rewrite("unfold", ("dedekind", (F(h), F(k))))
+def test_definition_keeps_value(h, k):
+    (r,) = rewrite("definition", ("dedekind", (F(h), F(k))))
     assert value(r) == dedekind(h, k)
 
 
@@ -175,11 +175,11 @@ def test_three_term_refuses_wrong_first_argument():
     assert msg == "with a, b, c = 5, 7, 9 the law needs s(c a*, b) with first argument = 6 (mod 7), not 5"
 
 
-def test_unfold_refuses_over_budget():
+def test_definition_refuses_over_budget():
     from checker.foundation.errors import BudgetExceeded
     with pytest.raises(BudgetExceeded) as info:
-        rewrite("unfold", ("dedekind", (F(1), F(10**6))))
-    assert info.value.message.startswith("unfolding dedekind(h, 1000000) needs 1000000 terms, over the limit unfold-terms")
+        rewrite("definition", ("dedekind", (F(1), F(10**6))))
+    assert info.value.message.startswith("writing dedekind(h, 1000000) out by its definition needs 1000000 terms, over the limit definition-terms")
 
 
 def test_rules_refuse_wrong_functions_and_non_integers():

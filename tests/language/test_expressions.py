@@ -25,14 +25,14 @@ from conftest import exact
     ("mod(-7, 3) + floor(-7/2) + ceil(7/2) + frac(-1/3)", Fraction(2 - 4 + 4) + Fraction(2, 3)),
     ("gcd(12, 18) * lcm([4, 6])", Fraction(6 * 12)),
     ("binomial(10, 3) + binomial(-2, 3)", Fraction(120 - 4)),
-    ("sum(j = 1 .. 100, j)", Fraction(5050)),
-    ("sum(j = 0 .. 16, sawtooth(j/17) * sawtooth(5*j/17))", Fraction(1, 17)),
+    ("total(j from 1 to 100: j)", Fraction(5050)),
+    ("total(j from 0 to 16: sawtooth(j/17) * sawtooth(5*j/17))", Fraction(1, 17)),
     ("dedekind(5, 17)", Fraction(1, 17)),
     ("partitions(10, [1, 2, 3])", Fraction(14)),
     ("frobenius([6, 9, 20])", Fraction(43)),
     ("bernoulli(12)", Fraction(-691, 2730)),
     ("bernoulli(2, 1/2)", Fraction(-1, 12)),
-    ("floor_sum(10, 3, 0, 4)", Fraction(30)),
+    ("staircase(10, 3, 0, 4)", Fraction(30)),
 ])
 def test_values(text, value):
     exact(evaluate(text), value)
@@ -62,10 +62,10 @@ def test_arithmetic_is_exact(a, b, c, d):
     ("[1, 2] + 1", DomainError, 1, "a list stands where a number is needed"),
     ("10^10^10", BudgetExceeded, 1, "the power 10^10000000000 needs 30000000001 bits, over the limit integer-bits = 1000000 (raise it with --limit integer-bits=N)"),
     ("bernoulli(10^9)", BudgetExceeded, 1, "a Bernoulli number of index 1000000000 needs 1000000000, over the limit bernoulli-index = 4000 (raise it with --limit bernoulli-index=N)"),
-    ("sum(j = 0 .. 10^9, j)", BudgetExceeded, 1, "a sum of 1000000001 terms needs 1000000001 steps, over the limit terms = 3000000 (raise it with --limit terms=N)"),
-    ("1 +", SyntaxProblem, 4, "the text ends too early: expected '(', '+', '-', '[', 'sum', a name or a number"),
-    ("1 + * 2", SyntaxProblem, 5, "unexpected '*': expected '(', '+', '-', '[', a name or a number"),
-    ("1 $ 2", SyntaxProblem, 3, "unexpected character '$' (it is not part of the language)"),
+    ("total(j from 0 to 10^9: j)", BudgetExceeded, 1, "a sum of 1000000001 terms needs 1000000001 steps, over the limit terms = 3000000 (raise it with --limit terms=N)"),
+    ("1 +", SyntaxProblem, 4, "the text stops too early: it still needs an expression"),
+    ("1 + * 2", SyntaxProblem, 5, "'*' cannot come here: the text needs an expression at this place"),
+    ("1 $ 2", SyntaxProblem, 3, "the character '$' is not part of the language"),
 ])
 def test_errors_have_positions_and_plain_messages(text, cls, column, message):
     with pytest.raises(cls) as info:
@@ -120,7 +120,7 @@ def test_cli_eval_error_is_not_a_traceback():
     code, out, err = run(["eval", "1 + 1", "dedekind(1, 0)"])
     assert code == 2
     assert out.splitlines() == ["2"]
-    assert err.splitlines()[0] == "expression 2:1:1: error: the second argument of dedekind must be a positive integer, not 0"
+    assert err.splitlines()[0] == "argument 2, column 1: error: the second argument of dedekind must be a positive integer, not 0"
     assert "Traceback" not in err
     assert err.splitlines()[2].strip() == "^" * len("dedekind(1, 0)")
 

@@ -19,8 +19,8 @@ def test_sylvester_two_parts():
                 exact(nonrepresentable_count([a, b]), Fraction((a - 1) * (b - 1), 2))
 
 
-def test_chicken_nuggets():
-    # {6, 9, 20}: Frobenius number 43 (from memory)
+def test_six_nine_twenty():
+    # {6, 9, 20}: Frobenius number 43 (OEIS A065003)
     exact(frobenius([6, 9, 20]), Fraction(43))
     exact(frobenius([20, 9, 6]), Fraction(43))
 

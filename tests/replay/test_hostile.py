@@ -40,7 +40,7 @@ def test_random_text(text):
 
 
 TOKENS = ["claim", "chain", "let", "title", "source", "=", "==", "mod", "by", "reduce",
-          "reciprocity", "value", "arithmetic", "unfold", "negate", "inverse", "common_factor",
+          "reciprocity", "value", "arithmetic", "definition", "negate", "inverse", "common_factor",
           "three_term", "claim q", "q:", "dedekind(", "partitions(", "bernoulli(", "frobenius(",
           "fourier_dedekind(", "sum(j = 0 .. ", "generalized_dedekind(", "floor(", ")", "(", "[",
           "]", ",", "+", "-", "*", "/", "^", "1", "0", "17", "5", "-3", "10^10^10", "\n", "# c\n",
@@ -76,8 +76,8 @@ HOSTILE = [
     ("exponent tower", "claim 10^10^10 = 1\n", "limit"),
     ("huge binomial", "claim binomial(10^9, 10^8) = 1\n", "limit"),
     ("huge Bernoulli index", "claim bernoulli(10^12) = 0\n", "limit"),
-    ("unfold of a giant sum", "chain dedekind(1, 10^9)\n  = 0 by unfold\n", "limit"),
-    ("giant finite sum", "claim sum(j = 1 .. 10^15, j) = 0\n", "limit"),
+    ("a giant sum by definition", "chain dedekind(1, 10^9)\n  = 0 by definition\n", "limit"),
+    ("giant finite sum", "claim total(j from 1 to 10^15: j) = 0\n", "limit"),
     ("giant partition table", "claim partitions(10^12, [10^9, 10^9 + 1]) = 0\n", "limit"),
     ("giant Frobenius table", "claim frobenius([10^12 + 1, 10^12]) = 0\n", "limit"),
     ("huge Fourier-Dedekind modulus", "claim fourier_dedekind(1, [1, 1], 10^9000 + 1) = 0\n", "limit"),
@@ -141,8 +141,8 @@ def test_list_and_literal_limits_name_themselves():
     f = check_text("claim 1 + 1 + 1 = 3\n", limits=Limits(tokens=5)).failure
     assert (f.message, f.line, f.column) == (
         "the text has more than 5 tokens, the limit tokens = 5 (raise it with --limit tokens=N)", 1, 10)
-    f = check_text("chain dedekind(1, 30)\n  = 0 by unfold\n", limits=Limits(unfold_terms=10)).failure
-    assert "over the limit unfold-terms = 10" in f.message + " ".join(f.details)
+    f = check_text("chain dedekind(1, 30)\n  = 0 by definition\n", limits=Limits(definition_terms=10)).failure
+    assert "over the limit definition-terms = 10" in f.message + " ".join(f.details)
 
 
 def test_cli_never_prints_a_traceback(tmp_path):
@@ -232,7 +232,7 @@ def _lemma_expr(draw, depth=0):
 
 _CONDITIONS = ["k >= 1", "k >= 3", "h >= 1", "h < k", "k == 1 mod 2", "h == 2 mod 3", "gcd(h, k) = 1",
                "h*k == 1 mod 5", "h^2 == -1 mod k", "k <= 0", "k = 2", "gcd(k, 0) = 1", "k == 0 mod 0"]
-_RULE_NAMES = ["reduce", "reciprocity", "negate", "inverse", "common_factor", "three_term", "unfold",
+_RULE_NAMES = ["reduce", "reciprocity", "negate", "inverse", "common_factor", "three_term", "definition",
                "value", "arithmetic", "claim c", "lemma f(k, h)", "lemma f(k)", "lemma g(1, 2)"]
 
 
@@ -245,9 +245,9 @@ def _lemma_text(draw):
     chain = "  chain c: " + lhs + "\n" + "".join(f"    = {e} by {', '.join(r)}\n" for e, r in steps)
     split = draw(st.sampled_from(["", "  split k mod 2\n  residue 0:\n" + chain + "  residue 1:\n" + chain]))
     body = chain if not split else split
-    head = draw(st.sampled_from(["lemma f(k, h):\n", "lemma f(k):\n", "lemma f(k, k):\n"]))
-    assume = ("  given " + ", ".join(conds) + "\n") if conds else ""
-    return head + assume + f"  then {lhs} = {rhs}\n" + body + "end\nchain dedekind(2, 7) = 1/7 by lemma f(7, 3)\n"
+    head = draw(st.sampled_from(["lemma f(k, h)", "lemma f(k)", "lemma f(k, k)"]))
+    assume = (" for " + ", ".join(conds)) if conds else ""
+    return head + assume + f":\n  {lhs} = {rhs}\n" + body + "end\nchain dedekind(2, 7) = 1/7 by lemma f(7, 3)\n"
 
 
 @settings(max_examples=300, deadline=None)

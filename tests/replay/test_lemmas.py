@@ -101,9 +101,8 @@ def test_bundled_lemmas_used_at_numbers_and_with_parameters():
     text = """use "dedekind-lemmas"
 chain dedekind(2, 1001) = 1000*996/(24*1001) by lemma two_over_odd(1001)
 chain dedekind(3, 1000) = (1000 - 1)*(1000 - 10)/36000 by lemma three_over_k(1000)
-lemma five_over_odd(m):
-  given m >= 0
-  then dedekind(2, 2*m + 1) = m*(m - 2)/(6*(2*m + 1))
+lemma five_over_odd(m) for m >= 0:
+  dedekind(2, 2*m + 1) = m*(m - 2)/(6*(2*m + 1))
   chain dedekind(2, 2*m + 1) = (2*m)*(2*m - 4)/(24*(2*m + 1)) by lemma two_over_odd(2*m + 1)
 end
 """
@@ -119,22 +118,20 @@ def test_numeric_use_checks_the_assumptions():
 
 def test_symbolic_use_checks_the_assumptions():
     text = """use "dedekind-lemmas"
-lemma careless(k):
-  given k >= 1
-  then dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
+lemma careless(k) for k >= 1:
+  dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
   chain dedekind(2, k) = (k - 1)*(k - 5)/(24*k) by lemma two_over_odd(k)
 end
 """
     f = failure(text)
     assert "needs k == 1 mod 2, which does not follow for k = k" in f.message
-    assert f.line == 5
+    assert f.line == 4
 
 
 # -- wrong lemmas, each refused with its reason ------------------------------------------------
 
-TWO_ODD = """lemma two_odd(k):
-  given k >= 1, k == 1 mod 2
-  then dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
+TWO_ODD = """lemma two_odd(k) for k >= 1, k == 1 mod 2:
+  dedekind(2, k) = (k - 1)*(k - 5)/(24*k)
   chain dedekind(2, k)
     = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(k, 2)   by reciprocity
     = (2/k + k/2 + 1/(2*k))/12 - 1/4 - dedekind(1, 2)   by reduce
@@ -151,31 +148,30 @@ def test_the_worked_example_is_accepted():
 def test_false_closed_form_is_caught_by_the_algebra_step():
     f = failure(TWO_ODD.replace("(k - 1)*(k - 5)/(24*k)                            by value",
                                 "(k - 1)*(k - 7)/(24*k) by value"))
-    assert (f.line, f.column) == (7, 8)
+    assert (f.line, f.column) == (6, 8)
     assert "does not follow by value" in f.message
     assert any("difference (this line - what the rule gives)" in d for d in f.details)
     assert any("at k = 3 the previous line is -1/18 and this line is -1/9" in d for d in f.details)
 
 
 def test_false_statement_with_a_true_chain_is_caught_at_the_conclusion():
-    text = TWO_ODD.replace("then dedekind(2, k) = (k - 1)*(k - 5)/(24*k)",
-                           "then dedekind(2, k) = (k - 1)*(k - 5)/(12*k)")
+    text = TWO_ODD.replace("dedekind(2, k) = (k - 1)*(k - 5)/(24*k)",
+                           "dedekind(2, k) = (k - 1)*(k - 5)/(12*k)")
     f = failure(text)
-    assert "the last chain must end at the right side of `then`" in f.message
+    assert "the last chain must end at the right side of the statement" in f.message
 
 
 def test_reciprocity_without_coprimality_names_the_condition():
-    f = failure(TWO_ODD.replace("given k >= 1, k == 1 mod 2", "given k >= 1"))
-    assert (f.line, f.column) == (5, 8)
+    f = failure(TWO_ODD.replace("for k >= 1, k == 1 mod 2", "for k >= 1"))
+    assert (f.line, f.column) == (4, 8)
     assert "does not follow by reciprocity" in f.message
     assert any("the assumptions do not give gcd(2, k) = 1: k can be 0 (mod 2)" in d for d in f.details)
     assert any("at k = 2" in d for d in f.details)
 
 
 def test_reduce_whose_residue_is_not_fixed_is_refused():
-    text = """lemma guess(k):
-  given k >= 1
-  then dedekind(k, 3) = dedekind(1, 3)
+    text = """lemma guess(k) for k >= 1:
+  dedekind(k, 3) = dedekind(1, 3)
   chain dedekind(k, 3) = dedekind(1, 3) by reduce
 end
 """
@@ -185,9 +181,8 @@ end
 
 
 def test_case_split_missing_a_class_is_refused():
-    text = """lemma three(k):
-  given k >= 1
-  then dedekind(3, k) = (k^2 - 9*k + 10 - 2*k*(3 - 2*mod(k, 3)))/(36*k)
+    text = """lemma three(k) for k >= 1:
+  dedekind(3, k) = (k^2 - 9*k + 10 - 2*k*(3 - 2*mod(k, 3)))/(36*k)
   split k mod 3
   residue 1:
     chain dedekind(3, k) = (3/k + k/3 + 1/(3*k))/12 - 1/4 - dedekind(k, 3) by reciprocity
@@ -201,15 +196,14 @@ end
 """
     f = failure(text)
     assert "the residues given do not cover k = 0 (mod 3), which the assumptions allow" in f.message
-    assert (f.line, f.column) == (4, 3)
+    assert (f.line, f.column) == (3, 3)
     # with gcd(3, k) = 1 assumed, the same two residues cover everything
-    assert check_text(text.replace("given k >= 1", "given k >= 1, gcd(3, k) = 1")).ok
+    assert check_text(text.replace("for k >= 1", "for k >= 1, gcd(3, k) = 1")).ok
 
 
 def test_case_split_needs_a_parameter_and_distinct_cases():
-    text = """lemma twice(k):
-  given k >= 1
-  then k = k
+    text = """lemma twice(k) for k >= 1:
+  k = k
   split k mod 2
   residue 1:
     chain k = k by arithmetic
@@ -221,9 +215,8 @@ end
 
 
 def test_divisor_that_may_vanish_is_refused():
-    text = """lemma pole(k):
-  given k >= 1
-  then 1/(k - 3) = 1/(k - 3)
+    text = """lemma pole(k) for k >= 1:
+  1/(k - 3) = 1/(k - 3)
   chain 1/(k - 3) = 1/(k - 3) by arithmetic
 end
 """
@@ -232,9 +225,8 @@ end
 
 
 def test_floor_of_an_unfixed_residue_is_refused():
-    text = """lemma halves(k):
-  given k >= 1
-  then floor(k/2) = k/2
+    text = """lemma halves(k) for k >= 1:
+  floor(k/2) = k/2
   chain floor(k/2) = k/2 by arithmetic
 end
 """
@@ -242,9 +234,8 @@ end
 
 
 def test_floor_of_a_fixed_residue_is_simplified():
-    text = """lemma halves(k):
-  given k >= 1, k == 1 mod 2
-  then floor(k/2) + mod(k, 2) + sawtooth(k/4) = (k + 1)/2 + sawtooth(k/4)
+    text = """lemma halves(k) for k >= 1, k == 1 mod 2:
+  floor(k/2) + mod(k, 2) + sawtooth(k/4) = (k + 1)/2 + sawtooth(k/4)
   chain floor(k/2) + mod(k, 2) + sawtooth(k/4) = (k + 1)/2 + sawtooth(k/4) by arithmetic
 end
 """
@@ -252,9 +243,8 @@ end
 
 
 def test_contradictory_assumptions_prove_nothing():
-    text = """lemma empty(k):
-  given k >= 5, k <= 2
-  then dedekind(1, k) = 7
+    text = """lemma empty(k) for k >= 5, k <= 2:
+  dedekind(1, k) = 7
   chain dedekind(1, k) = 7 by arithmetic
 end
 """
@@ -263,7 +253,7 @@ end
 
 
 def test_statement_may_use_only_parameters():
-    text = "let q = 5\nlemma x(k):\n  given k >= 1\n  then dedekind(q, k) = 0\n  chain dedekind(q, k) = 0 by arithmetic\nend\n"
+    text = "let q = 5\nlemma x(k) for k >= 1:\n  dedekind(q, k) = 0\n  chain dedekind(q, k) = 0 by arithmetic\nend\n"
     assert "'q' is not a parameter of lemma x" in failure(text).message
 
 
@@ -276,9 +266,8 @@ def test_planted_bug_in_a_symbolic_rule_is_caught_by_the_second_opinion(monkeypa
         return [add(scale(symbolic_rules._call("dedekind", -h, k), Fraction(-1)), {frozenset(): Fraction(1, 1000)})]
 
     monkeypatch.setitem(symbolic_rules._RULES, "negate", wrong_negate)
-    text = """lemma odd_sum(k):
-  given k >= 1
-  then dedekind(k - 1, k) = 1/1000 - dedekind(1 - k, k)
+    text = """lemma odd_sum(k) for k >= 1:
+  dedekind(k - 1, k) = 1/1000 - dedekind(1 - k, k)
   chain dedekind(k - 1, k) = 1/1000 - dedekind(1 - k, k) by negate
 end
 """
@@ -369,8 +358,8 @@ def residue_lemmas(draw):
     steps.append((f"{pre}dedekind({t}, {q})", "reduce"))
     steps.append((f"{-value if sign else value}", "value"))
     body = "\n".join(f"    = {e} by {r_}" for e, r_ in steps)
-    text = (f"lemma drawn(k):\n  given k >= {low}, k == {r} mod {m}\n"
-            f"  then {start} = {-value if sign else value}\n  chain {start}\n{body}\nend\n")
+    text = (f"lemma drawn(k) for k >= {low}, k == {r} mod {m}:\n"
+            f"  {start} = {-value if sign else value}\n  chain {start}\n{body}\nend\n")
     return text
 
 
@@ -387,7 +376,7 @@ def reciprocity_lemmas(draw):
         # the same closed form as one fraction: (k^2 + c^2 + 1 - 3 c k - 12 c k v)/(12 c k)
         v = value
         final = f"(k^2 + {c * c + 1} - {3 * c}*k - {12 * c * v}*k)/({12 * c}*k)"
-    text = (f"lemma drawn(k):\n  given k >= 1, k == {r} mod {c}\n  then dedekind({c}, k) = {final}\n"
+    text = (f"lemma drawn(k) for k >= 1, k == {r} mod {c}:\n  dedekind({c}, k) = {final}\n"
             f"  chain dedekind({c}, k)\n"
             f"    = ({c}/k + k/{c} + 1/({c}*k))/12 - 1/4 - dedekind(k, {c}) by reciprocity\n"
             f"    = ({c}/k + k/{c} + 1/({c}*k))/12 - 1/4 - dedekind({r}, {c}) by reduce\n"
@@ -414,7 +403,7 @@ STANDALONE = _standalone_lemmas()
 @settings(max_examples=80, deadline=None)
 @given(st.sampled_from(STANDALONE), st.data())
 def test_corrupting_one_symbol_of_a_proved_lemma_is_rejected(text, data):
-    """A single-symbol change in `then` or in a line of the proof is refused, unless the changed
+    """A single-symbol change in the statement or in a line of the proof is refused, unless the changed
     line still has the value of the original at every instance tried (an equivalent mutant)."""
     from checker.kernel.evaluation import Evaluator
     from checker.language.parsing import parse_certificate
@@ -437,7 +426,9 @@ def test_corrupting_one_symbol_of_a_proved_lemma_is_rejected(text, data):
         assert report.exit_code in (1, 2), report.failures
 
 
-_EXPRESSION_LINE = re.compile(r"^(\s*(?:then .*? = |= |chain (?:\w+: )?\S.*? = ))(.*?)(\s+by .*)?$")
+# a statement line (after the lemma's header), a step, or a chain written on one line
+_EXPRESSION_LINE = re.compile(r"^(\s*(?:= |chain (?:\w+: )?\S.*? = |(?!chain\b|split\b|residue\b|lemma\b|end\b|#)\S.*? = ))"
+                              r"(.*?)(\s+by .*)?$")
 _SYMBOL = re.compile(r"\d+|[+\-*/]")
 
 
@@ -448,7 +439,7 @@ def corruptions(text):
     lines = text.split("\n")
     for i, line in enumerate(lines):
         m = _EXPRESSION_LINE.match(line)
-        if not m or line.strip().startswith(("given", "lemma", "split", "residue")):
+        if not m or line.strip().startswith(("lemma", "split", "residue")):
             continue
         head, expr, tail = m.group(1), m.group(2), m.group(3) or ""
         for sym in _SYMBOL.finditer(expr):
@@ -468,7 +459,7 @@ def assume_any(options):
 # -- budgets -----------------------------------------------------------------------------------
 
 def test_lemma_degree_limit_refuses_huge_powers_at_once():
-    text = ("lemma f(k):\n  given k >= 1\n  then (k + 1)^3000 = (k + 1)^3000\n"
+    text = ("lemma f(k) for k >= 1:\n  (k + 1)^3000 = (k + 1)^3000\n"
             "  chain (k + 1)^3000 = (k + 1)^3000 by arithmetic\nend\n")
     report = check_text(text)
     f = report.failures[0]
@@ -478,7 +469,7 @@ def test_lemma_degree_limit_refuses_huge_powers_at_once():
 
 def test_lemma_degree_limit_counts_products():
     product = "*".join(["(k + 1)"] * 250)
-    text = f"lemma f(k):\n  given k >= 1\n  then {product} = 0\n  chain {product} = 0 by arithmetic\nend\n"
+    text = f"lemma f(k) for k >= 1:\n  {product} = 0\n  chain {product} = 0 by arithmetic\nend\n"
     assert "over the limit lemma-degree = 200" in check_text(text).failures[0].message
 
 
@@ -486,32 +477,30 @@ def test_lemma_degree_limit_counts_products():
 
 def test_gcd_of_neighbours_is_derived_for_reciprocity():
     # gcd(k - 1, k) = 1 always (one Euclid step); k - 1 >= 1 from k >= 2
-    text = """lemma neighbours(k):
-  given k >= 2
-  then dedekind(k - 1, k) + dedekind(k, k - 1) = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4
+    text = """lemma neighbours(k) for k >= 2:
+  dedekind(k - 1, k) + dedekind(k, k - 1) = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4
   chain dedekind(k - 1, k) + dedekind(k, k - 1)
     = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4 - dedekind(k, k - 1) + dedekind(k, k - 1)  by reciprocity
     = ((k - 1)/k + k/(k - 1) + 1/((k - 1)*k))/12 - 1/4                                           by arithmetic
 end
 """
     assert check_text(text).ok
-    f = failure(text.replace("given k >= 2", "given k >= 1"))
+    f = failure(text.replace("for k >= 2", "for k >= 1"))
     assert "dedekind(k, k - 1) is not defined for every allowed value: the assumptions do not give " \
            "k - 1 >= 1" in f.message
 
 
 def test_residue_of_k_plus_one_modulo_k():
     # (k + 1) mod k = 1 for k >= 2, and not for k = 1
-    text = "lemma m(k):\n  given k >= 2\n  then mod(k + 1, k) = 1\n  chain mod(k + 1, k) = 1 by arithmetic\nend\n"
+    text = "lemma m(k) for k >= 2:\n  mod(k + 1, k) = 1\n  chain mod(k + 1, k) = 1 by arithmetic\nend\n"
     assert check_text(text).ok
     assert "mod(k + 1, k) is not fixed by the assumptions" in failure(text.replace("k >= 2", "k >= 1")).message
 
 
 def test_inverse_from_an_assumed_congruence():
     # s(h', k) = s(h, k) from h h' = 1 (mod k); without it the rule is refused
-    text = """lemma inv(h, g, k):
-  given k >= 1, h*g == 1 mod k
-  then dedekind(g, k) = dedekind(h, k)
+    text = """lemma inv(h, g, k) for k >= 1, h*g == 1 mod k:
+  dedekind(g, k) = dedekind(h, k)
   chain dedekind(g, k) = dedekind(h, k) by inverse
 end
 """

@@ -112,6 +112,13 @@ def instantiate(evaluator, info: LemmaInfo, ref: st.RuleRef, facts: Assumptions,
     binding = dict(zip(info.params, values))
     inst = SymbolicNormaliser(evaluator, facts, binding)
     shown = ", ".join(f"{p} = {value_label(v)}" for p, v in binding.items())
+    for (p, v), node in zip(binding.items(), ref.args):
+        # a lemma speaks of integers: its statement says nothing at other values
+        why = facts.integral(v)
+        if why:
+            raise RuleRefused(f"lemma {info.name} holds for integer {p} only, and {p} = {value_label(v)} "
+                              f"is not {'an integer' if not facts.params else 'known to be an integer'}: "
+                              f"{why}", node.pos.line, node.pos.column)
     for cond, text in zip(info.conditions, info.condition_texts):
         try:
             kind, lhs, rhs, modulus = condition_values(inst, cond)

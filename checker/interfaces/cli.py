@@ -133,12 +133,12 @@ def bundled_certificates() -> list:
 
 def _check_one(args):
     """Check one path (a certificate or a table); module level so that processes can run it."""
-    path, limits, keep_going, paranoid = args
+    path, limits, keep_going, paranoid, seed = args
     from ..replay.checking import check_file
     from .tables import TABLE_SUFFIXES, check_table
     if path.suffix.lower() in TABLE_SUFFIXES:
         return check_table(path, limits)
-    return check_file(path, limits, keep_going=keep_going, paranoid=paranoid)
+    return check_file(path, limits, keep_going=keep_going, paranoid=paranoid, seed=seed)
 
 
 def _progress_bar(total, out, unit: str = "file"):
@@ -164,7 +164,7 @@ def _cmd_check(ns, out, err) -> int:
     if ns.jobs < 1:
         raise UsageError("--jobs wants a whole number >= 1")
     start = time.perf_counter()
-    jobs = [(p, limits, ns.every_failure, ns.paranoid) for p in paths]
+    jobs = [(p, limits, ns.every_failure, ns.paranoid, ns.seed) for p in paths]
     bar = _progress_bar(len(paths), out)
     if len(paths) == 1 and paths[0].suffix.lower() in TABLE_SUFFIXES:
         rows_bar = _progress_bar(None, out, "row")
@@ -268,6 +268,9 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--format", choices=["text", "json", "sarif"], default="text",
                    help="text for people (default); json, one object per certificate; sarif, the "
                         "SARIF 2.1.0 format that code hosts and editors read")
+    c.add_argument("--seed", type=int, default=None, metavar="N",
+                   help="draw the instances of the lemmas' numeric second opinion from seed N "
+                        "(by default an unpredictable source, new each run); the same N draws the same ones")
     c.add_argument("--no-time", action="store_true",
                    help="leave the time out of the summary line (byte-identical output)")
     sub.add_parser("eval", help="print the exact value of expressions", add_help=False)

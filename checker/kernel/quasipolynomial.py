@@ -38,6 +38,7 @@ from typing import Optional
 
 from ..language import expressions as ex
 from ..foundation.errors import CertificateError, DomainError
+from ..foundation.limits import check_time
 from ..mathematics.partitions import check_parts
 from ..mathematics.polytopes import (check_inequalities, check_points, inequality_vertex_denominator,
                                      vertex_denominator)
@@ -508,7 +509,11 @@ class IdentityResult:
 
 
 def _values(node, var, ns, ev):
-    return [ev.number(node) for _ in binding(ev.env, var, ns)]
+    out = []
+    for _ in binding(ev.env, var, ns):
+        check_time()
+        out.append(ev.number(node))
+    return out
 
 
 def _check_claimed(node, side, var, s: Shape, start, ev, period, degree, limits):
@@ -551,6 +556,7 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
     ns = range(start - below, start + block)
     result = IdentityResult(True, degree, period, ns[0] if ns else start, len(ns), threshold)
     for n in binding(ev.env, var, ns):
+        check_time()
         a, b = ev.number(lhs), ev.number(rhs)
         if a != b:
             result.ok, result.counterexample, result.left, result.right = False, n, a, b

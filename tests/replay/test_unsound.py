@@ -2,6 +2,7 @@
 kept as a file in tests/unsound/: each must fail.
 
 - `*.qcert` files start with the line `# must fail: REASON` and are checked with `check_file`;
+  an optional second line `# limits: NAME=N, ...` lowers budgets (hangs are kept with `seconds=3`);
 - tables (`*.csv`, `*.jsonl`) are checked with `check_table` and listed with their reason in
   tests/unsound/README.md (a table has no comment line of its own);
 - every other file (README.md aside) is a mistake: the test says which checker it lacks.
@@ -17,6 +18,7 @@ from pathlib import Path
 import pytest
 
 from checker import check_file
+from checker.foundation.limits import DEFAULT_LIMITS
 from checker.interfaces.cli import main
 
 FOLDER = Path(__file__).parent.parent / "unsound"
@@ -30,11 +32,22 @@ def _readme_entries() -> str:
     return readme.read_text(encoding="utf-8") if readme.exists() else ""
 
 
+def _limit_pairs(path: Path) -> list:
+    """NAME=N pairs of a `# limits:` second line, if there is one."""
+    lines = path.read_bytes().split(b"\n", 2)
+    if path.suffix != ".qcert" or len(lines) < 2:
+        return []
+    m = re.match(r"# limits: (.+)$", lines[1].decode("utf-8", "replace").strip())
+    return [p.strip() for p in m.group(1).split(",")] if m else []
+
+
 def _report(path: Path):
+    pairs = _limit_pairs(path)
+    limits = DEFAULT_LIMITS.with_overrides({k: int(v) for k, v in (p.split("=") for p in pairs)})
     if path.suffix.lower() in TABLES:
         from checker.interfaces.tables import check_table
-        return check_table(path)
-    return check_file(path)
+        return check_table(path, limits)
+    return check_file(path, limits)
 
 
 def test_the_folder_holds_reproducers():
@@ -63,6 +76,7 @@ def test_each_reproducer_fails(path):
     assert "checker bug" not in kinds, (
         f"{path.name}: only the numeric second opinion caught it; the symbolic check accepted it")
     out, err = io.StringIO(), io.StringIO()
-    code = main(["check", str(path), "--no-time"], out=out, err=err)
+    argv = ["check", str(path), "--no-time"] + [a for p in _limit_pairs(path) for a in ("--limit", p)]
+    code = main(argv, out=out, err=err)
     assert code != 0, out.getvalue()
     assert "Traceback" not in out.getvalue() + err.getvalue()

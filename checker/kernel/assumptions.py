@@ -42,6 +42,7 @@ from fractions import Fraction
 from itertools import product
 from math import gcd
 
+from ..foundation.limits import check_time
 from .rational_functions import (RationalFunction, as_polynomial, exact_quotient,
                                  integer_factorization, is_integer_polynomial, names_of, p_add,
                                  p_constant, p_scale, poly_text)
@@ -288,7 +289,9 @@ class Assumptions:
         if count > _MAX_RESIDUE_TUPLES:
             return None
         out = set()
-        for values in product(*choices):
+        for i, values in enumerate(product(*choices)):
+            if not i & 1023:
+                check_time()
             env = dict(zip(names, values))
             total = 0
             for mono, c in reduced.items():

@@ -25,6 +25,7 @@ from fractions import Fraction
 
 from ..language import expressions as ex
 from ..foundation.errors import BudgetExceeded, CertificateError, DomainError
+from ..foundation.limits import check_time
 from .functions import REGISTRY
 from ..foundation.numbers import atom_text, value_text
 from .evaluation import binding
@@ -86,6 +87,7 @@ def mul(x: NF, y: NF, limit: int | None = None) -> NF:
                              f"terms = {limit}")
     out: NF = {}
     for m1, c1 in x.items():
+        check_time()
         for m2, c2 in y.items():
             m = _mono_mul(m1, m2)
             v = out.get(m, 0) + c1 * c2

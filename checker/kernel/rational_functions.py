@@ -27,6 +27,8 @@ from functools import lru_cache
 from math import gcd as _gcd
 from typing import Union
 
+from ..foundation.limits import check_time
+
 __all__ = ["RationalFunction", "Value", "poly_text", "names_of", "is_integer_polynomial",
            "poly_eval", "as_polynomial"]
 
@@ -55,6 +57,7 @@ def p_add(p: dict, q: dict, sign: int = 1) -> dict:
 def p_mul(p: dict, q: dict) -> dict:
     out: dict = {}
     for m1, c1 in p.items():
+        check_time()              # products of big polynomials are the slow part of a lemma
         for m2, c2 in q.items():
             m = _mono_mul(m1, m2)
             v = out.get(m, _ZERO) + c1 * c2

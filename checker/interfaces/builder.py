@@ -98,8 +98,10 @@ class Certificate:
     def text(self) -> str:
         return "\n".join(self._lines) + "\n"
 
-    def check(self, name: str = "<built>", limits=DEFAULT_LIMITS, keep_going: bool = True):
-        return check_text(self.text(), name, limits, keep_going)
+    def check(self, name: str = "<built>", limits=DEFAULT_LIMITS, keep_going: bool = True,
+              seed: int | None = None):
+        """Check the text; `seed` fixes the instances of the lemmas' numeric second opinion."""
+        return check_text(self.text(), name, limits, keep_going, seed=seed)
 
     def __repr__(self) -> str:
         title = self._lines[0][7:-1] if self._lines and self._lines[0].startswith("title ") else ""

@@ -191,7 +191,10 @@ def assumption_query(rnd) -> tuple[str, str | None]:
                 return what, None
             bad = next((p for p in pts if _at(P, p) == 0), None)
         elif kind == "coprime":
-            Q, tq = (_linear(rnd, names) if rnd.random() < 0.6 else random_polynomial(rnd, names))
+            r = rnd.random()
+            x = rnd.choice(names)
+            Q, tq = ((_var(x), x) if r < 0.3 else _linear(rnd, names) if r < 0.7 else
+                     random_polynomial(rnd, names))
             what += f" and {tq}"
             if facts.coprime(P, Q) is not None:
                 return what, None

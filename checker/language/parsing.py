@@ -284,9 +284,10 @@ class _Build(Transformer):
 # Characters that some editor, terminal or Python's str.splitlines shows or counts as a line
 # break, apart from \n (and \r\n): a comment or a quoted text would end there for a reader and
 # not for the grammar, which ends both at \n only, so that a statement written after one would
-# be silently skipped.  Bidirectional controls reorder what a reader sees ("Trojan source").
+# be silently skipped.  Bidirectional controls reorder what a reader sees ("Trojan source"), and
+# other control characters (escape sequences) can move a terminal's cursor or hide text.
 # quasicert refuses them before parsing, wherever they stand; positions count \n alone.
-_MISLEADING = re.compile("\r(?!\n)|[\x0b\x0c\x1c\x1d\x1e\x85\u2028\u2029"
+_MISLEADING = re.compile("\r(?!\n)|[\x01-\x08\x0b-\x0c\x0e-\x1f\x7f-\x9f\u2028\u2029"
                          "\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]")
 _MISLEADING_NAMES = {
     "\r": "a carriage return (\\r) not followed by \\n", "\x0b": "a vertical tab (\\v)",
@@ -313,6 +314,10 @@ def _refuse_misleading(text: str) -> None:
         raise SyntaxProblem(f"the text contains {_MISLEADING_NAMES[ch]}, which editors show as a line "
                             "break but quasicert does not read as one (a comment or quoted text would "
                             "go on past it); end lines with \\n only", line, column, column + 1)
+    if ch < "\xa0":
+        raise SyntaxProblem(f"the text contains the control character U+{ord(ch):04X}, which a terminal "
+                            "or an editor may act on instead of showing it (moving the cursor, hiding "
+                            "text); quasicert refuses it", line, column, column + 1)
     raise SyntaxProblem(f"the text contains the bidirectional control U+{ord(ch):04X}, which changes the "
                         "order in which the text is shown; quasicert refuses it", line, column, column + 1)
 

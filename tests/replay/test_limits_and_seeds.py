@@ -58,7 +58,7 @@ def test_cli_seed_option():
 
 
 @pytest.mark.parametrize("mark", ["\r", "\x0b", "\x0c", "\x1c", "\x1d", "\x1e", "\x85", "\u2028", "\u2029",
-                                  "\u202e", "\u2066"])
+                                  "\u202e", "\u2066", "\x1b", "\x7f", "\x9b", "\x01"])
 def test_line_breaks_the_grammar_does_not_know_are_refused_where_they_stand(mark):
     text = f"claim dedekind(5, 17) = 1/17\nclaim 1 = 1   # note{mark}claim dedekind(1, 3) = 5\n"
     f = check_text(text).failure

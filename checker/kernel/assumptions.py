@@ -397,8 +397,11 @@ class Assumptions:
     def coprime(self, a, b, depth: int = _EUCLID_DEPTH) -> str | None:
         pa, pb = _poly(a), _poly(b)
         why = f"the assumptions do not give gcd({_shown(a)}, {_shown(b)}) = 1"
-        if pa is not None and pb is not None and (p_constant(pa) in (1, -1) or p_constant(pb) in (1, -1)):
-            return None            # gcd(1, n) = 1 for every integer n
+        for x, y, other in ((pa, pb, b), (pb, pa, a)):
+            if x is not None and y is not None and p_constant(x) in (1, -1):
+                # gcd(1, n) = 1 for every integer n, and only for integers: n must be one
+                not_whole = self.integral(other)
+                return None if not_whole is None else f"{why}: {not_whole}"
         if pa is None or pb is None or not is_integer_polynomial(pa) or not is_integer_polynomial(pb):
             return why + " (both must be integer polynomials)"
         return self._coprime(pa, pb, depth, why)

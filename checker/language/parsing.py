@@ -205,10 +205,14 @@ class _Build(Transformer):
         var, lower = children[3]
         period = degree = None
         for c in children[4:]:
-            if isinstance(c, tuple) and c[0] == "period":
-                period = c[1]
-            elif isinstance(c, tuple) and c[0] == "degree":
-                degree = c[1]
+            if isinstance(c, tuple) and c[0] in ("period", "degree"):
+                if (period if c[0] == "period" else degree) is not None:
+                    # two claims of one kind: keeping either would leave the other unchecked
+                    raise SyntaxProblem(f"the {c[0]} is claimed twice; claim it once").at(c[1])
+                if c[0] == "period":
+                    period = c[1]
+                else:
+                    degree = c[1]
         lhs, rhs = children[-3], children[-1]
         return st.Identity(label, var, lower, period, degree, lhs, rhs, _span(children))
 

@@ -13,6 +13,7 @@ __all__ = [
     "SyntaxProblem",
     "DomainError",
     "BudgetExceeded",
+    "OutOfTime",
     "RuleRefused",
     "UnreadableFile",
     "CheckerBug",
@@ -88,6 +89,10 @@ class BudgetExceeded(CertificateError):
     """A request would cost more than the configured limit allows."""
 
     kind = "limit"
+
+
+class OutOfTime(BudgetExceeded):
+    """The `seconds` limit passed during a check: the whole check stops, not only one value."""
 
 
 class RuleRefused(CertificateError):

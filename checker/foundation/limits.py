@@ -6,11 +6,14 @@ limit and the option that raises it.
 """
 from __future__ import annotations
 
+import time
+from contextlib import contextmanager
+from contextvars import ContextVar
 from dataclasses import dataclass, fields, replace
 
-from .errors import BudgetExceeded
+from .errors import BudgetExceeded, OutOfTime
 
-__all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES"]
+__all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES", "time_limit", "check_time"]
 
 #: limits renamed since an earlier version: old name -> new name
 FORMER_NAMES = {"unfold_terms": "definition_terms"}
@@ -36,7 +39,8 @@ class Limits:
     file_bytes: int = 16 * 1024 * 1024
     #: tokens in one text (the parser's memory grows with them, about 300 bytes each)
     tokens: int = 2_000_000
-    #: wall-clock seconds for one certificate (checked between statements and steps)
+    #: wall-clock seconds for one certificate (checked between statements and steps, and inside
+    #: evaluations: every function call, every term of a sum, every point of an identity)
     seconds: int = 600
     #: total degree of a polynomial in a lemma's parameters (numerators and denominators)
     lemma_degree: int = 200
@@ -72,3 +76,40 @@ def _short(n: int) -> str:
 
 
 DEFAULT_LIMITS = Limits()
+
+
+# -- the clock: the `seconds` limit inside long computations ------------------------------
+#
+# A check runs inside `time_limit(seconds)`; long loops (sums, identities, the numeric second
+# opinion, the O(k) sums of the mathematics layer) call `check_time()`, which raises OutOfTime
+# once the deadline has passed.  A context variable, so that threads and nested checks each
+# see their own deadline (a nested one never extends the outer one).
+
+_DEADLINE: ContextVar = ContextVar("quasicert_deadline", default=None)
+
+
+@contextmanager
+def time_limit(seconds: float, at: float | None = None):
+    """Run the body with a deadline `seconds` from now (or at the monotonic time `at`)."""
+    deadline = (time.monotonic() + seconds) if at is None else at
+    outer = _DEADLINE.get()
+    if outer is not None and outer[0] <= deadline:
+        deadline, seconds = outer
+    token = _DEADLINE.set((deadline, seconds))
+    try:
+        yield
+    finally:
+        _DEADLINE.reset(token)
+
+
+def check_time() -> None:
+    """Raise OutOfTime when the current check has run past its `seconds` limit."""
+    current = _DEADLINE.get()
+    if current is not None and time.monotonic() > current[0]:
+        raise OutOfTime(f"the check has run for more than {_seconds(current[1])} s, the limit seconds = "
+                        f"{_seconds(current[1])} (raise it with --limit seconds=N); it stopped here, "
+                        "and nothing from here on was checked")
+
+
+def _seconds(s) -> str:
+    return str(int(s)) if float(s).is_integer() else f"{s:g}"

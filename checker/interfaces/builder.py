@@ -170,10 +170,11 @@ class Certificate:
         return "\n".join(self._lines) + "\n"
 
     def check(self, name: str = "<built>", limits=DEFAULT_LIMITS, keep_going: bool = False,
-              allow_empty: bool = False):
+              allow_empty: bool = False, seed: int | None = None):
         """The Report of replaying the text; like checker.check_text, it stops at the first failure
-        unless keep_going, and an empty certificate fails unless allow_empty."""
-        return check_text(self.text(), name, limits, keep_going, allow_empty=allow_empty)
+        unless keep_going, and an empty certificate fails unless allow_empty. `seed` fixes the
+        instances of the lemmas' numeric second opinion."""
+        return check_text(self.text(), name, limits, keep_going, allow_empty=allow_empty, seed=seed)
 
     def __repr__(self) -> str:
         title = self._lines[0][7:-1] if self._lines and self._lines[0].startswith("title ") else ""

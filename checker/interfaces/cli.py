@@ -178,12 +178,13 @@ def bundled_certificates() -> list:
 
 def _check_one(args):
     """Check one path (a certificate or a table); module level so that processes can run it."""
-    path, limits, keep_going, paranoid, allow_empty = args
+    path, limits, keep_going, paranoid, allow_empty, seed = args
     from .files import check_file
-    return check_file(path, limits, keep_going=keep_going, paranoid=paranoid, allow_empty=allow_empty)
+    return check_file(path, limits, keep_going=keep_going, paranoid=paranoid, allow_empty=allow_empty,
+                      seed=seed)
 
 
-def _check_stdin(kind: str, limits, keep_going, paranoid, allow_empty):
+def _check_stdin(kind: str, limits, keep_going, paranoid, allow_empty, seed=None):
     """Standard input, read as a certificate or (with --as csv/jsonl) a table."""
     from .files import check_text, require_something
     from .tables import check_table
@@ -201,7 +202,7 @@ def _check_stdin(kind: str, limits, keep_going, paranoid, allow_empty):
         report.failures.append(Failure(None, None, f"standard input is not UTF-8 text (byte {e.start})",
                                        kind="unreadable", exit_code=EXIT_ERROR))
         return report
-    return check_text(text, "<stdin>", limits, keep_going, paranoid, allow_empty)
+    return check_text(text, "<stdin>", limits, keep_going, paranoid, allow_empty, seed)
 
 
 def _progress_bar(total, out, unit: str = "file"):
@@ -275,7 +276,7 @@ def _cmd_check(ns, out, err) -> int:
     machine = ns.format != "text"
     keep_going = ns.every_failure or machine          # JSON and SARIF carry every failure
     start = time.perf_counter()
-    jobs = [(p, limits, keep_going, ns.paranoid, ns.allow_empty) for p in paths]
+    jobs = [(p, limits, keep_going, ns.paranoid, ns.allow_empty, ns.seed) for p in paths]
     bar = _progress_bar(len(paths), err)
     reports = []
     if len(paths) == 1 and str(paths[0]) != "-" and is_table(paths[0]):
@@ -298,7 +299,8 @@ def _cmd_check(ns, out, err) -> int:
         for j in jobs:
             with _Ticker(err if bar is None else None, str(j[0])):
                 if str(j[0]) == "-":
-                    reports.append(_check_stdin(ns.as_format, limits, keep_going, ns.paranoid, ns.allow_empty))
+                    reports.append(_check_stdin(ns.as_format, limits, keep_going, ns.paranoid, ns.allow_empty,
+                                                ns.seed))
                 else:
                     reports.append(_check_one(j))
             if bar is not None:
@@ -421,6 +423,9 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--format", choices=["text", "json", "sarif"], default="text",
                    help="text for people (default); json, one object per certificate; sarif, the "
                         "SARIF 2.1.0 format that code hosts and editors read")
+    c.add_argument("--seed", type=int, default=None, metavar="N",
+                   help="draw the instances of the lemmas' numeric second opinion from seed N "
+                        "(by default an unpredictable source, new each run); the same N draws the same ones")
     c.add_argument("--no-time", action="store_true",
                    help="leave the time out of the summary line (byte-identical output)")
     sub.add_parser("eval", help="print the exact value of expressions", add_help=False)

@@ -36,7 +36,7 @@ def require_something(report: Report, allow_empty: bool = False) -> Report:
 
 
 def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False, paranoid: bool = False,
-               allow_empty: bool = False) -> Report:
+               allow_empty: bool = False, seed: int | None = None) -> Report:
     """Check a certificate or a table file; tables list every failing row (keep_going is for certificates)."""
     path = Path(path)
     if is_table(path):
@@ -48,12 +48,14 @@ def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False, 
             report = Report(name=str(path))
             report.failures.append(Failure(e.line, e.column, e.message, kind=e.kind, exit_code=2))
             return report
-        report = checking.check_text(text.removeprefix(BOM), str(path), limits, keep_going, paranoid)
+        report = checking.check_text(text.removeprefix(BOM), str(path), limits, keep_going, paranoid, seed)
     return require_something(report, allow_empty)
 
 
 def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS, keep_going: bool = False,
-               paranoid: bool = False, allow_empty: bool = False) -> Report:
-    """Check a certificate given as text; never raises for anything the text contains."""
-    report = checking.check_text(text.removeprefix(BOM), name, limits, keep_going, paranoid)
+               paranoid: bool = False, allow_empty: bool = False, seed: int | None = None) -> Report:
+    """Check a certificate given as text; never raises for anything the text contains.
+
+    `seed` fixes the instances of the lemmas' numeric second opinion (None: unpredictable)."""
+    report = checking.check_text(text.removeprefix(BOM), name, limits, keep_going, paranoid, seed)
     return require_something(report, allow_empty)

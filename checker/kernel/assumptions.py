@@ -42,9 +42,10 @@ from fractions import Fraction
 from itertools import product
 from math import gcd
 
-from .rational_functions import (RationalFunction, as_polynomial, exact_quotient, factors,
-                                 is_integer_polynomial, names_of, p_add, p_constant, p_scale,
-                                 poly_text)
+from ..foundation.limits import check_time
+from .rational_functions import (RationalFunction, as_polynomial, exact_quotient,
+                                 integer_factorization, is_integer_polynomial, names_of, p_add,
+                                 p_constant, p_scale, poly_text)
 
 __all__ = ["Assumptions"]
 
@@ -234,8 +235,7 @@ class Assumptions:
         # F G = -u (mod M) with u = +-1 makes every factor of F G prime to M
         for u in (1, -1):
             q = p_add(p, {(): Fraction(u)})
-            for f in factors(q):
-                f, _ = _integer_form(f)
+            for f in _factor_pieces(q):
                 self.coprime_pairs.append((f, m))
         return ""
 
@@ -289,7 +289,9 @@ class Assumptions:
         if count > _MAX_RESIDUE_TUPLES:
             return None
         out = set()
-        for values in product(*choices):
+        for i, values in enumerate(product(*choices)):
+            if not i & 1023:
+                check_time()
             env = dict(zip(names, values))
             total = 0
             for mono, c in reduced.items():
@@ -381,8 +383,7 @@ class Assumptions:
         c = p_constant(p)
         if c is not None:
             return None if c else "it is 0"
-        for f in factors(p):
-            f, _ = _integer_form(f)
+        for f in _factor_pieces(p):
             if self.at_least(RationalFunction.of(f, {(): Fraction(1)}), 1) is None:
                 continue
             if self.at_least(RationalFunction.of(p_scale(f, Fraction(-1)), {(): Fraction(1)}), 1) is None:
@@ -396,8 +397,11 @@ class Assumptions:
     def coprime(self, a, b, depth: int = _EUCLID_DEPTH) -> str | None:
         pa, pb = _poly(a), _poly(b)
         why = f"the assumptions do not give gcd({_shown(a)}, {_shown(b)}) = 1"
-        if pa is not None and pb is not None and (p_constant(pa) in (1, -1) or p_constant(pb) in (1, -1)):
-            return None            # gcd(1, n) = 1 for every integer n
+        for x, y, other in ((pa, pb, b), (pb, pa, a)):
+            if x is not None and y is not None and p_constant(x) in (1, -1):
+                # gcd(1, n) = 1 for every integer n, and only for integers: n must be one
+                not_whole = self.integral(other)
+                return None if not_whole is None else f"{why}: {not_whole}"
         if pa is None or pb is None or not is_integer_polynomial(pa) or not is_integer_polynomial(pb):
             return why + " (both must be integer polynomials)"
         return self._coprime(pa, pb, depth, why)
@@ -411,16 +415,19 @@ class Assumptions:
             return None
         if depth == 0:
             return why
+        specific = None          # the first piece that failed, for the message
         for x, y in ((pa, pb), (pb, pa)):
             split = _split(x)
             if len(split) > 1:
-                if all(self._coprime(f, y, depth - 1, why) is None for f in split):
+                failed = [r for r in (self._coprime(f, y, depth - 1, why) for f in split) if r]
+                if not failed:
                     return None
+                specific = specific or failed[0]
         for x, y in ((pa, pb), (pb, pa)):
             for reduced in _euclid_steps(x, y):
                 if self._coprime(reduced, y, depth - 1, why) is None:
                     return None
-        return why
+        return specific or why
 
     def _prime_to_constant_value(self, c: int, y: dict, why: str) -> str | None:
         if c == 1:
@@ -435,6 +442,9 @@ class Assumptions:
                 names = sorted(names_of(y))
                 if len(y) == 1 and len(names) == 1 and rs is not None:
                     return f"{why}: {names[0]} can be 0 (mod {p})"
+                if rs is None:
+                    factor = f"the prime {p}" if p == c else f"the prime factor {p} of {c}"
+                    return f"{why}: {_text(y)} is not known to be prime to {factor}"
                 return f"{why}: {_text(y)} can be 0 (mod {p})"
         return None
 
@@ -507,19 +517,28 @@ def _integer_ratios(p: dict, fact: dict):
     return out
 
 
+def _factor_pieces(p: dict) -> list:
+    """Integer polynomials f with p = c * prod f^e (c a nonzero constant): the primitive
+    irreducible factors, or p in integer form when the factorization cannot be had.  p is 0
+    at a point exactly when one of them is, and divides what their product divides."""
+    found = integer_factorization(p)
+    if found is None:
+        return [_integer_form(p)[0]]
+    return [f for f, _ in found[1]]
+
+
 def _split(p: dict) -> list:
-    """p as content and irreducible integer factors, when there is more than one piece."""
-    pieces = [_integer_form(f)[0] for f in factors(p)]
-    pieces = [_primitive(f) for f in pieces]
-    product_ = {(): Fraction(1)}
-    from .rational_functions import p_mul
-    for f in pieces:
-        product_ = p_mul(product_, f)
-    content = exact_quotient(p, product_)
-    c = p_constant(content) if content is not None else None
-    if c is not None and abs(c) != 1:
-        pieces.append({(): abs(c)})
-    return pieces
+    """The pieces of the integer polynomial p whose values' common divisors are those of p:
+    its content c (when |c| > 1) and each primitive irreducible factor, from p = c prod f^e
+    (``integer_factorization`` multiplies it out and checks it); [p] when it cannot be had."""
+    found = integer_factorization(p)
+    if found is None:
+        return [p]
+    c, pieces = found
+    out = [f for f, _ in pieces]
+    if abs(c) != 1:
+        out.append({(): abs(c)})
+    return out
 
 
 def _primitive(p: dict) -> dict:

@@ -5,6 +5,10 @@ CertificateError pointing at the sub-expression that caused it; every costly
 step is measured against the Limits first.  No text is ever executed: the
 tree comes from the grammar, and names resolve only to values bound by the
 certificate or to the functions of ``checker.kernel.functions``.
+
+x^0 = 1 for every x, 0^0 included: the combinatorial convention (Knuth, "Two notes on
+notation", Amer. Math. Monthly 99, 1992), the one that normal forms (x^0 = 1 as a monomial),
+identity shapes (degree 0) and lemmas (k^0 = 1) use too.
 """
 from __future__ import annotations
 
@@ -15,7 +19,7 @@ from ..language import expressions as ex
 from ..mathematics.dedekind import dedekind_along_euclid
 from ..foundation.errors import BudgetExceeded, CertificateError, CheckerBug, DomainError
 from .functions import REGISTRY
-from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..foundation.limits import DEFAULT_LIMITS, Limits, check_time
 from ..foundation.numbers import atom_text, value_text
 from ..mathematics.second_opinion import second_opinion
 
@@ -62,6 +66,7 @@ class Evaluator:
         hit = self.memo.get(key)
         if hit is not None:
             return hit
+        check_time()
         if name == "partitions" and len(args) == 2:
             value = self._from_partition_table(args)
             if value is not None:
@@ -145,6 +150,8 @@ class Evaluator:
         e = exponent.numerator
         if base == 0 and e < 0:
             raise DomainError("0 to a negative power is a division by zero").at(node)
+        if e == 0:
+            return Fraction(1)       # x^0 = 1 for every x, 0^0 included (the one convention)
         if base in (0, 1):
             return base
         if base == -1:
@@ -179,6 +186,7 @@ class Evaluator:
         self.limits.require("terms", max(count, 0), f"a sum of {max(count, 0)} terms")
         total = Fraction(0)
         for _ in binding(self.env, node.var, range(lower, upper + 1)):
+            check_time()
             total += self.number(node.body)
             self._check_size(total, node)
         return total

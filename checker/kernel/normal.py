@@ -25,6 +25,7 @@ from fractions import Fraction
 
 from ..language import expressions as ex
 from ..foundation.errors import BudgetExceeded, CertificateError, DomainError
+from ..foundation.limits import check_time
 from .functions import REGISTRY
 from ..foundation.numbers import atom_text, value_text
 from .evaluation import binding
@@ -86,6 +87,7 @@ def mul(x: NF, y: NF, limit: int | None = None) -> NF:
                              f"terms = {limit}")
     out: NF = {}
     for m1, c1 in x.items():
+        check_time()
         for m2, c2 in y.items():
             m = _mono_mul(m1, m2)
             v = out.get(m, 0) + c1 * c2
@@ -221,6 +223,7 @@ class Normaliser:
                     raise DomainError(
                         "this divisor is a sum involving function calls, which a step cannot "
                         "compare symbolically; replace the calls by their values first").at(factor)
+                self._require_nonzero(f, factor)
                 f = inv
             acc = mul(acc, f, self.limits.terms)
         return acc
@@ -239,7 +242,17 @@ class Normaliser:
         if out is None:
             raise DomainError("a negative power of a sum involving function calls cannot be "
                               "compared symbolically").at(node)
+        if e < 0:
+            self._require_nonzero(base, node.base)
         return out
+
+    def _require_nonzero(self, divisor: NF, node) -> None:
+        """A monomial may stand in a denominator only when none of its calls is 0: otherwise
+        the line is undefined, and cancelling the call (x/x = 1) would hide it."""
+        for m in divisor:
+            for atom, _ in m:
+                if self.evaluator.call(*atom, node) == 0:
+                    raise DomainError(f"{atom_text(atom)} is 0, so this divides by zero").at(node)
 
     def _Call(self, node):
         spec = REGISTRY.get(node.name)
@@ -250,6 +263,11 @@ class Normaliser:
         simple = _trivial_value(atom)
         if simple is not None:
             return constant(simple)
+        # every call of a line must be defined, also one that the normal form drops
+        # (0*x, x - x, x^0): the exact value of the line would hide an undefined call
+        value = self.evaluator.call(node.name, args, node)
+        if isinstance(value, tuple):
+            raise DomainError(f"{node.name} gives a list where a number is needed").at(node)
         self.positions.setdefault(atom, node.pos)
         return atom_nf(atom)
 

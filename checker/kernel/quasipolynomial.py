@@ -38,6 +38,7 @@ from typing import Optional
 
 from ..language import expressions as ex
 from ..foundation.errors import CertificateError, DomainError
+from ..foundation.limits import check_time
 from ..mathematics.partitions import check_parts
 from ..mathematics.polytopes import (check_inequalities, check_points, inequality_vertex_denominator,
                                      vertex_denominator)
@@ -511,24 +512,31 @@ class IdentityResult:
 
 
 def _values(node, var, ns, ev):
-    return [ev.number(node) for _ in binding(ev.env, var, ns)]
+    out = []
+    for _ in binding(ev.env, var, ns):
+        check_time()
+        out.append(ev.number(node))
+    return out
 
 
-def _check_claimed(node, side, var, s: Shape, start, ev, period, degree, limits):
-    """Does `node` have period dividing `period` and degree <= `degree` from `start` on?
+def _check_claimed(node, side, var, s: Shape, start, ev, period, degree, limits, first=None):
+    """Does `node` have period dividing `period` and degree <= `degree` from `first` on?
 
-    The (degree+1)-th difference with step `period` is a quasi-polynomial of
-    degree <= s.degree and period s.period: zero iff zero at that many points.
+    From the threshold `start` on, the (degree+1)-th difference with step `period` is a
+    quasi-polynomial of degree <= s.degree and period s.period: zero iff zero at that many
+    points.  Below the threshold (from `first`, the identity's lower end) nothing is known of
+    the shape, so each of those differences is computed.
     """
-    count = (s.degree + 1) * root_count(s.orders)
+    first = start if first is None else min(first, start)
+    count = (s.degree + 1) * root_count(s.orders) + (start - first)
     span = (degree + 1) * period
     limits.require("terms", count + span, f"verifying the claimed period and degree of the {side} side")
-    values = _values(node, var, range(start, start + count + span), ev)
+    values = _values(node, var, range(first, first + count + span), ev)
     for i in range(count):
         diff = sum((-1) ** j * comb(degree + 1, j) * values[i + j * period] for j in range(degree + 2))
         if diff:
             return (f"the {side} side does not have period {period} and degree <= {degree}: at "
-                    f"{var} = {start + i} its difference of order {degree + 1} with step {period} is {diff}")
+                    f"{var} = {first + i} its difference of order {degree + 1} with step {period} is {diff}")
     return ""
 
 
@@ -554,6 +562,7 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
     ns = range(start - below, start + block)
     result = IdentityResult(True, degree, period, ns[0] if ns else start, len(ns), threshold)
     for n in binding(ev.env, var, ns):
+        check_time()
         a, b = ev.number(lhs), ev.number(rhs)
         if a != b:
             result.ok, result.counterexample, result.left, result.right = False, n, a, b
@@ -564,7 +573,8 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
         if p < 1 or d < 0:
             raise DomainError("a claimed period must be >= 1 and a claimed degree >= 0")
         for node, s, side in ((lhs, left, "left"), (rhs, right, "right")):
-            problem = _check_claimed(node, side, var, s, start, ev, p, d, limits)
+            problem = _check_claimed(node, side, var, s, start, ev, p, d, limits,
+                                     first=start - below)
             if problem:
                 result.ok, result.problem, result.problem_side = False, problem, side
                 return result

@@ -27,6 +27,8 @@ from functools import lru_cache
 from math import gcd as _gcd
 from typing import Union
 
+from ..foundation.limits import check_time
+
 __all__ = ["RationalFunction", "Value", "poly_text", "names_of", "is_integer_polynomial",
            "poly_eval", "as_polynomial"]
 
@@ -55,6 +57,7 @@ def p_add(p: dict, q: dict, sign: int = 1) -> dict:
 def p_mul(p: dict, q: dict) -> dict:
     out: dict = {}
     for m1, c1 in p.items():
+        check_time()              # products of big polynomials are the slow part of a lemma
         for m2, c2 in q.items():
             m = _mono_mul(m1, m2)
             v = out.get(m, _ZERO) + c1 * c2
@@ -198,6 +201,43 @@ def factors(p: dict) -> list:
     if p and max(_degree(m) for m in p) > _FACTOR_DEGREE:
         return [] if p_constant(p) is not None else [p]
     return [dict(f) for f, _ in _factor_cached(tuple(sorted(p.items())))]
+
+
+def integer_factorization(p: dict):
+    """(c, [(f, e), ...]) with p = c * prod f^e exactly, each f a primitive integer polynomial of
+    positive degree (irreducible up to degree 40; above, p's primitive part stands for itself),
+    e its multiplicity; c is then rational (an integer when p is an integer polynomial, by
+    Gauss's lemma).  The product is multiplied out and compared with p, so a factorization that
+    lost a factor or a multiplicity is never returned: None instead."""
+    if not p or p_constant(p) is not None:
+        return (p_constant(p), [])
+    if max(_degree(m) for m in p) > _FACTOR_DEGREE:
+        pieces = [(p, 1)]
+    else:
+        pieces = [(dict(f), e) for f, e in _factor_cached(tuple(sorted(p.items())))]
+    out, product = [], {(): Fraction(1)}
+    for f, e in pieces:
+        f = _primitive_integer(f)
+        out.append((f, e))
+        for _ in range(e):
+            product = p_mul(product, f)
+    content = exact_quotient(p, product)
+    c = p_constant(content) if content is not None else None
+    if not c or p_mul(product, {(): c}) != p:
+        return None
+    return c, out
+
+
+def _primitive_integer(p: dict) -> dict:
+    """p scaled to integer coefficients without a common factor, leading coefficient > 0."""
+    L, g = 1, 0
+    for c in p.values():
+        L = L * c.denominator // _gcd(L, c.denominator)
+    q = p_scale(p, Fraction(L))
+    for c in q.values():
+        g = _gcd(g, int(c))
+    q = p_scale(q, Fraction(1, g))
+    return q if q[_leading(q)] > 0 else p_scale(q, Fraction(-1))
 
 
 # -- rational functions ----------------------------------------------------------

@@ -352,10 +352,11 @@ class SymbolicNormaliser:
             v = fixed_sawtooth(self.facts, args[-1])
             return None if v is None else _const(v)
         if name == "gcd" and len(args) == 2:
-            if self.facts.coprime(args[0], args[1]) is None:
+            why = self.facts.coprime(args[0], args[1])
+            if why is None:
                 return _const(Fraction(1))
             raise DomainError(f"gcd({value_label(args[0])}, {value_label(args[1])}) is not fixed by the "
-                              "assumptions (only gcd = 1 can be derived)").at(node)
+                              f"assumptions (only gcd = 1 can be derived): {why}").at(node)
         if name == "binomial":
             n, j = args
             if is_symbolic(j) or j.denominator != 1:

@@ -8,6 +8,7 @@ what was expected in words, at a 1-based line and column.
 """
 from __future__ import annotations
 
+import re
 from functools import lru_cache
 from pathlib import Path
 
@@ -212,10 +213,14 @@ class _Build(Transformer):
         var, lower = children[3]
         period = degree = None
         for c in children[4:]:
-            if isinstance(c, tuple) and c[0] == "period":
-                period = c[1]
-            elif isinstance(c, tuple) and c[0] == "degree":
-                degree = c[1]
+            if isinstance(c, tuple) and c[0] in ("period", "degree"):
+                if (period if c[0] == "period" else degree) is not None:
+                    # two claims of one kind: keeping either would leave the other unchecked
+                    raise SyntaxProblem(f"the {c[0]} is claimed twice; claim it once").at(c[1])
+                if c[0] == "period":
+                    period = c[1]
+                else:
+                    degree = c[1]
         lhs, rhs = children[-3], children[-1]
         return st.Identity(label, var, lower, period, degree, lhs, rhs, _span(children))
 
@@ -298,12 +303,49 @@ class _Build(Transformer):
         return st.Use(str(children[1])[1:-1], _span(children))
 
 
-def _parse(text: str, start: str, limits: Limits):
+# Characters that some editor, terminal or Python's str.splitlines shows or counts as a line
+# break, apart from \n (and \r\n): a comment or a quoted text would end there for a reader and
+# not for the grammar, which ends both at \n only, so that a statement written after one would
+# be silently skipped.  Bidirectional controls reorder what a reader sees ("Trojan source"), and
+# other control characters (escape sequences) can move a terminal's cursor or hide text.
+# quasicert refuses them before parsing, wherever they stand; positions count \n alone.
+_MISLEADING = re.compile("\r(?!\n)|[\x01-\x08\x0b-\x0c\x0e-\x1f\x7f-\x9f\u2028\u2029"
+                         "\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]")
+_MISLEADING_NAMES = {
+    "\r": "a carriage return (\\r) not followed by \\n", "\x0b": "a vertical tab (\\v)",
+    "\x0c": "a form feed (\\f)", "\x1c": "U+001C FILE SEPARATOR", "\x1d": "U+001D GROUP SEPARATOR",
+    "\x1e": "U+001E RECORD SEPARATOR", "\x85": "U+0085 NEXT LINE", "\u2028": "U+2028 LINE SEPARATOR",
+    "\u2029": "U+2029 PARAGRAPH SEPARATOR",
+}
+
+
+def _position(text: str, i: int) -> tuple[int, int]:
+    """1-based line and column of text[i], lines ended by \n (as the parser counts them)."""
+    return text.count("\n", 0, i) + 1, i - (text.rfind("\n", 0, i) + 1) + 1
+
+
+def _refuse_misleading(text: str) -> None:
     if "\x00" in text:
-        i = text.index("\x00")
-        line = text.count("\n", 0, i) + 1
-        column = i - (text.rfind("\n", 0, i) + 1) + 1
-        raise SyntaxProblem("the text contains a NUL character", line, column)
+        raise SyntaxProblem("the text contains a NUL character", *_position(text, text.index("\x00")))
+    m = _MISLEADING.search(text)
+    if m is None:
+        return
+    ch = m.group()
+    line, column = _position(text, m.start())
+    if ch in _MISLEADING_NAMES:
+        raise SyntaxProblem(f"the text contains {_MISLEADING_NAMES[ch]}, which editors show as a line "
+                            "break but quasicert does not read as one (a comment or quoted text would "
+                            "go on past it); end lines with \\n only", line, column, column + 1)
+    if ch < "\xa0":
+        raise SyntaxProblem(f"the text contains the control character U+{ord(ch):04X}, which a terminal "
+                            "or an editor may act on instead of showing it (moving the cursor, hiding "
+                            "text); quasicert refuses it", line, column, column + 1)
+    raise SyntaxProblem(f"the text contains the bidirectional control U+{ord(ch):04X}, which changes the "
+                        "order in which the text is shown; quasicert refuses it", line, column, column + 1)
+
+
+def _parse(text: str, start: str, limits: Limits):
+    _refuse_misleading(text)
     parser = _parser(limits)
     parser.options.transformer.tokens = 0
     try:

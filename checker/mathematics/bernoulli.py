@@ -24,6 +24,7 @@ from math import comb
 
 from .elementary import as_integer, as_rational, frac, sawtooth
 from ..foundation.errors import DomainError
+from ..foundation.limits import check_time
 
 __all__ = ["bernoulli", "bernoulli_polynomial", "periodic_bernoulli", "bernoulli_numbers"]
 
@@ -42,6 +43,7 @@ def _tangent_numbers(count: int) -> list[int]:
     for k in range(2, count + 1):
         t[k] = (k - 1) * t[k - 1]
     for k in range(2, count + 1):
+        check_time()
         for j in range(k, count + 1):
             t[j] = (j - k) * t[j - 1] + (j - k + 2) * t[j]
     return t

@@ -40,6 +40,7 @@ from math import comb, gcd
 from .bernoulli import bernoulli_numbers
 from .elementary import as_integer, as_positive, as_rational
 from ..foundation.errors import DomainError
+from ..foundation.limits import check_time
 
 __all__ = [
     "dedekind", "dedekind_by_definition", "dedekind_along_euclid",
@@ -207,6 +208,8 @@ def dedekind_rademacher(h, k, x, y) -> Fraction:
     den = k * q1 * q2
     total = 0
     for j in range(k):
+        if not j & 4095:
+            check_time()
         base = (j * q2 + p2) * q1          # (j + y) * q1 * q2
         total += _saw2(h * base + p1 * k * q2, den) * _saw2(base, den)
     return Fraction(total, 4 * den * den)
@@ -236,6 +239,8 @@ def generalized_dedekind_by_definition(p, h, k) -> Fraction:
     at_zero = 0 if p == 1 else coeffs[0]   # Bbar_1(0) = 0, Bbar_p(0) = B_p
     total = 0
     for j in range(1, k):
+        if not j & 255:
+            check_time()
         r = h * j % k
         if r == 0:
             value = at_zero

@@ -34,6 +34,7 @@ from math import gcd
 
 from .elementary import as_integer, as_positive
 from ..foundation.errors import DomainError
+from ..foundation.limits import check_time
 from .floor_sums import floor_sums
 
 __all__ = ["fourier_dedekind", "pair_table"]
@@ -106,6 +107,8 @@ def pair_table(a1: int, alpha2: int, b: int) -> list[int]:
     h[0] = value
     r = 0
     for v in range(1, b):
+        if not v & 65535:
+            check_time()
         r += gamma_inv
         if r >= b:
             r -= b

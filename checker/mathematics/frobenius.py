@@ -20,6 +20,7 @@ from fractions import Fraction
 from math import gcd
 
 from ..foundation.errors import DomainError
+from ..foundation.limits import check_time
 from .partitions import check_parts
 
 __all__ = ["frobenius", "nonrepresentable_count", "residue_table"]
@@ -43,6 +44,7 @@ def residue_table(parts) -> list[int]:
             continue
         d = gcd(a1, a)
         for r in range(d):
+            check_time()
             # start each cycle of +a at its least known entry
             best = None
             for q in range(r, a1, d):

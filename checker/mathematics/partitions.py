@@ -40,6 +40,7 @@ from math import factorial, gcd, prod
 from .bernoulli import bernoulli_numbers
 from .elementary import as_integer, as_positive
 from ..foundation.errors import DomainError
+from ..foundation.limits import check_time
 from .fourier_dedekind import cyclic_convolution
 
 __all__ = ["partitions", "partitions_extended", "partitions_by_table",
@@ -97,6 +98,7 @@ def partitions_by_table(n, parts) -> Fraction:
         if a > n:
             continue
         # c[i] += c[i - a] along each residue class is a running sum
+        check_time()
         for r in range(a):
             table[r::a] = accumulate(table[r::a])
     return Fraction(table[n])
@@ -238,7 +240,10 @@ class PartitionQuasiPolynomial:
         self.period = 1
         for a in parts:
             self.period = self.period * a // gcd(self.period, a)
-        self.waves = [self._wave(b) for b in _divisors_of_parts(parts)]
+        self.waves = []
+        for b in _divisors_of_parts(parts):
+            check_time()
+            self.waves.append(self._wave(b))
         # the polynomial part in powers of n
         b1 = self.waves[0]
         self.polynomial = self._wave_polynomial(b1, 0)

@@ -7,16 +7,18 @@ a Report.  The judgements themselves are ``kernel``'s; the words are here.
 from __future__ import annotations
 
 import difflib
+import secrets
 import time
 from fractions import Fraction
 from pathlib import Path
 
 from ..language import statements as st
-from ..foundation.errors import BudgetExceeded, CertificateError, CheckerBug, SyntaxProblem, UnreadableFile
+from ..foundation.errors import (BudgetExceeded, CertificateError, CheckerBug, OutOfTime, SyntaxProblem,
+                                 UnreadableFile)
 from ..kernel.evaluation import Evaluator
 from ..kernel.functions import REGISTRY
 from ..kernel.verdicts import check_step, compare, congruent, known_rule, nf_value
-from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..foundation.limits import DEFAULT_LIMITS, Limits, time_limit
 from ..kernel.normal import Normaliser, text as nf_text
 from ..foundation.numbers import value_text
 from ..language.parsing import parse_certificate
@@ -53,6 +55,8 @@ class _Facts:
             lhs, rhs = self.pending.pop(label)
             try:
                 self.ready[label] = (self.normaliser.normal(lhs), self.normaliser.normal(rhs))
+            except OutOfTime:
+                raise               # the whole check stops, not this value
             except CertificateError:
                 pass     # true, but not in a form a step can use
         return label in self.ready
@@ -62,8 +66,11 @@ class _Facts:
 
 
 def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
-               keep_going: bool = False, paranoid: bool = False) -> Report:
-    """Check a certificate given as text; never raises for anything the text contains."""
+               keep_going: bool = False, paranoid: bool = False, seed: int | None = None) -> Report:
+    """Check a certificate given as text; never raises for anything the text contains.
+
+    `seed` fixes the instances of the lemmas' numeric second opinion (the same seed gives the
+    same instances); by default they are drawn from an unpredictable source, new each run."""
     start = time.perf_counter()
     report = Report(name=name, text=text)
     try:
@@ -72,22 +79,22 @@ def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
         report.failures.append(_from_error(e, exit_code=2))
         report.seconds = time.perf_counter() - start
         return report
-    _Replay(cert, report, limits, keep_going, paranoid).run()
+    _Replay(cert, report, limits, keep_going, paranoid, seed).run()
     report.seconds = time.perf_counter() - start
     return report
 
 
 def check_certificate(cert: st.Certificate, limits: Limits = DEFAULT_LIMITS,
-                      keep_going: bool = False) -> Report:
+                      keep_going: bool = False, seed: int | None = None) -> Report:
     report = Report(name=cert.name, text=cert.text)
     start = time.perf_counter()
-    _Replay(cert, report, limits, keep_going).run()
+    _Replay(cert, report, limits, keep_going, seed=seed).run()
     report.seconds = time.perf_counter() - start
     return report
 
 
 def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False,
-               paranoid: bool = False) -> Report:
+               paranoid: bool = False, seed: int | None = None) -> Report:
     """Check one certificate file."""
     path = Path(path)
     try:
@@ -96,7 +103,7 @@ def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False,
         report = Report(name=str(path))
         report.failures.append(_from_error(e, exit_code=2))
         return report
-    return check_text(text, str(path), limits, keep_going, paranoid)
+    return check_text(text, str(path), limits, keep_going, paranoid, seed)
 
 
 def _from_error(e: CertificateError, exit_code: int | None = None, source_note=None) -> Failure:
@@ -109,9 +116,12 @@ def _from_error(e: CertificateError, exit_code: int | None = None, source_note=N
 
 class _Replay:
     def __init__(self, cert: st.Certificate, report: Report, limits: Limits, keep_going: bool,
-                 paranoid: bool = False):
+                 paranoid: bool = False, seed: int | None = None):
         self.cert = cert
         self.report = report
+        # the second opinion's instances: unpredictable unless a seed is given (then reproducible)
+        self.seed = seed if seed is not None else secrets.randbits(48)
+        report.seed = self.seed
         self.limits = limits
         self.keep_going = keep_going
         self.evaluator = Evaluator({}, limits, paranoid)
@@ -127,13 +137,17 @@ class _Replay:
 
     def nested(self, cert: st.Certificate, report: Report) -> "_Replay":
         """A replay of a certificate that this one uses, sharing its limits, deadline and library."""
-        replay = _Replay(cert, report, self.limits, False)
+        replay = _Replay(cert, report, self.limits, False, seed=self.seed)
         replay.library = self.library
         replay.deadline = self.deadline
         return replay
 
     # -- driving -------------------------------------------------------------
     def run(self):
+        with time_limit(self.limits.seconds, at=self.deadline):
+            self._run()
+
+    def _run(self):
         try:
             for stmt in self.cert.statements:
                 try:
@@ -433,6 +447,8 @@ class _Replay:
             return None
         try:
             fact = instantiate(self.evaluator, info, ref, Assumptions(()), {})
+        except OutOfTime:
+            raise               # the whole check stops, not this value
         except CertificateError as e:
             self._fail(Failure(ref.pos.line, ref.pos.column, f"{where} does not follow: {e.message}",
                                kind="failed", end_column=ref.pos.end_column))

@@ -6,17 +6,19 @@ chosen in the order they are declared; for each, the conditions that are
 linear in it once the earlier ones have values give a range and a residue
 class, so that `k = 1 mod 4`, `h < k` and `h*h' == 1 mod k` are met directly
 instead of by luck.  Small instances come first (every tuple of the first
-values, in order of their total index), then random ones with up to 30 digits.
+values, in order of their total index), then random ones of 2 to 30 digits, drawn from an
+unpredictable source each run (a seed, `--seed N`, draws the same ones again).
 """
 from __future__ import annotations
 
 import random
+import secrets
 from dataclasses import dataclass
 from fractions import Fraction
 from math import gcd
 
 from ..language import expressions as ex
-from ..foundation.errors import CertificateError
+from ..foundation.errors import CertificateError, OutOfTime
 from ..kernel.verdicts import compare, congruent
 
 __all__ = ["Sampler", "names_in"]
@@ -54,12 +56,14 @@ class _Plan:
 class Sampler:
     """Proposes and filters instances of `params` under `conditions` (statements.Condition)."""
 
-    def __init__(self, evaluator, params: tuple, conditions: tuple, extra=(), seed: int = 20261202):
+    def __init__(self, evaluator, params: tuple, conditions: tuple, extra=(), seed: int | None = None):
         self.evaluator = evaluator
         self.params = params
         self.conditions = tuple(conditions)
         self.extra = tuple(extra)       # (var, r, m): a case's residue class
-        self.random = random.Random(seed)
+        # an unpredictable source unless a seed is given: a false statement must not be able to
+        # vanish exactly at the instances drawn (the symbolic check is the proof, this a backstop)
+        self.random = random.Random(seed if seed is not None else secrets.randbits(64))
         self.names = [names_in(c.lhs) | names_in(c.rhs) | (names_in(c.modulus) if c.modulus else set())
                       for c in self.conditions]
         self.tried = 0
@@ -83,6 +87,8 @@ class Sampler:
                 m = self._value(cond.modulus, env)
                 return m != 0 and m.denominator == 1 and congruent(lhs, rhs, m)
             return compare(lhs, cond.relation, rhs)
+        except OutOfTime:
+            raise               # the whole check stops, not this value
         except CertificateError:
             return False
 
@@ -111,6 +117,8 @@ class Sampler:
                     and x not in names_in(cond.lhs) | names_in(cond.rhs) and names - {x} <= set(env) | set(self.evaluator.env):
                 try:
                     v = self._value(cond.lhs, env) - self._value(cond.rhs, env)
+                except OutOfTime:
+                    raise               # the whole check stops, not this value
                 except CertificateError:
                     continue
                 if v.denominator == 1 and v:
@@ -125,6 +133,8 @@ class Sampler:
             if cond.relation == "==":
                 try:
                     mod = self._value(cond.modulus, env)
+                except OutOfTime:
+                    raise               # the whole check stops, not this value
                 except CertificateError:
                     continue
                 if mod == 0 or mod.denominator != 1 or a.denominator != 1 or b.denominator != 1:
@@ -159,6 +169,8 @@ class Sampler:
                 e = dict(env)
                 e[x] = Fraction(t)
                 values.append(self._value(cond.lhs, e) - self._value(cond.rhs, e))
+        except OutOfTime:
+            raise               # the whole check stops, not this value
         except CertificateError:
             return None
         a, b = values[1] - values[0], values[0]
@@ -226,7 +238,7 @@ class Sampler:
                     d = next((d for d in range(self.random.randint(1, 12), 200) if plan.multiple_of % d == 0), 1)
                     env[x] = Fraction(plan.multiple_of // d)
                     continue
-                span = 10 ** self.random.randint(3, 30)
+                span = 10 ** self.random.randint(1, 30)
                 if plan.lo is not None and plan.hi is not None:
                     span = min(span, (plan.hi - plan.lo) // plan.m + 1)
                 v = self._nth(plan, self.random.randrange(max(span, 1)), True, self.random)

@@ -17,13 +17,14 @@ kernel's and the assumptions' own.
 from __future__ import annotations
 
 import difflib
+import hashlib
 from dataclasses import dataclass
 from fractions import Fraction
 
 from ..language import expressions as ex
 from ..language import statements as st
 from ..kernel.assumptions import Assumptions
-from ..foundation.errors import BudgetExceeded, CertificateError, DomainError, RuleRefused
+from ..foundation.errors import BudgetExceeded, CertificateError, DomainError, OutOfTime, RuleRefused
 from ..kernel.functions import REGISTRY
 from .instances import Sampler, names_in
 from ..kernel.verdicts import check_step, conclusion_problem, known_rule, uncovered_residues
@@ -112,10 +113,19 @@ def instantiate(evaluator, info: LemmaInfo, ref: st.RuleRef, facts: Assumptions,
     binding = dict(zip(info.params, values))
     inst = SymbolicNormaliser(evaluator, facts, binding)
     shown = ", ".join(f"{p} = {value_label(v)}" for p, v in binding.items())
+    for (p, v), node in zip(binding.items(), ref.args):
+        # a lemma speaks of integers: its statement says nothing at other values
+        why = facts.integral(v)
+        if why:
+            raise RuleRefused(f"lemma {info.name} holds for integer {p} only, and {p} = {value_label(v)} "
+                              f"is not {'an integer' if not facts.params else 'known to be an integer'}: "
+                              f"{why}", node.pos.line, node.pos.column)
     for cond, text in zip(info.conditions, info.condition_texts):
         try:
             kind, lhs, rhs, modulus = condition_values(inst, cond)
             why = facts.implies(kind, lhs, rhs, modulus)
+        except OutOfTime:
+            raise               # the whole check stops, not this value
         except CertificateError as e:
             why = e.message
         if why and not facts.params:
@@ -126,6 +136,8 @@ def instantiate(evaluator, info: LemmaInfo, ref: st.RuleRef, facts: Assumptions,
                               ref.pos.line, ref.pos.column)
     try:
         return inst.normal(info.lhs), inst.normal(info.rhs)
+    except OutOfTime:
+        raise               # the whole check stops, not this value
     except CertificateError as e:
         raise RuleRefused(f"lemma {info.name} at {shown}: {e.message}", ref.pos.line, ref.pos.column) from None
 
@@ -147,7 +159,8 @@ class LemmaCheck:
         self._check_names()
         facts = Assumptions(stmt.params)
         lemma_facts(SymbolicNormaliser(self.evaluator, facts, self.env), facts, stmt.conditions)
-        self.sampler = Sampler(self.evaluator, stmt.params, stmt.conditions)
+        self.sampler = Sampler(self.evaluator, stmt.params, stmt.conditions,
+                               seed=_lemma_seed(getattr(self.replay, "seed", None), stmt))
         self._instances = None
         scope = Scope(self.replay.facts)
         final = stmt.split is None
@@ -240,6 +253,8 @@ class LemmaCheck:
                     return None, None
                 try:
                     extra[f"lemma {ref.label}"] = instantiate(self.evaluator, info, ref, facts, self.env)
+                except OutOfTime:
+                    raise               # the whole check stops, not this value
                 except CertificateError as e:
                     self.replay._fail(Failure(ref.pos.line, ref.pos.column,
                                               f"{where} does not follow: {e.message}", kind="failed",
@@ -286,6 +301,8 @@ class LemmaCheck:
             try:
                 a = self.sampler._value(prev_node, env)
                 b = self.sampler._value(step.expr, env)
+            except OutOfTime:
+                return ["numerically: not tried, the time limit passed"]
             except BudgetExceeded:
                 continue
             except CertificateError as e:
@@ -402,6 +419,8 @@ class LemmaCheck:
             self.replay._on_time(stmt)
             try:
                 bad = self._instance_problem(env, checks)
+            except OutOfTime:
+                raise               # the whole check stops, not this value
             except BudgetExceeded:
                 continue                 # too costly at this instance: not evidence either way
             if bad:
@@ -440,6 +459,8 @@ class LemmaCheck:
     def _disagreement(self, env, a, b) -> list:
         try:
             va, vb = self.sampler._value(a, env), self.sampler._value(b, env)
+        except OutOfTime:
+            raise               # the whole check stops, not this value
         except BudgetExceeded:
             raise
         except CertificateError as e:
@@ -450,11 +471,23 @@ class LemmaCheck:
 
     def _bug(self, node, message, details) -> bool:
         p = node.pos
+        seed = getattr(self.replay, "seed", None)
+        again = [f"the instances were drawn with --seed {seed}; the same seed draws them again"] \
+            if seed is not None else []
         self.replay._fail(Failure(p.line, p.column, message,
-                                  details + ["the symbolic replay accepted this, so this is a bug in "
-                                             "quasicert: please report it with this certificate"],
+                                  details + again +
+                                  ["the symbolic replay accepted this, so this is a bug in "
+                                   "quasicert: please report it with this certificate"],
                                   kind="checker bug", exit_code=3))
         return False
+
+
+def _lemma_seed(seed, stmt) -> int | None:
+    """Each lemma's own stream of random instances, fixed by the run's seed, its name and line."""
+    if seed is None:
+        return None
+    digest = hashlib.sha256(f"{seed}:{stmt.name}:{stmt.pos.line}".encode()).digest()
+    return int.from_bytes(digest[:8], "big")
 
 
 def _case_words(case) -> str:

@@ -38,6 +38,7 @@ class Report:
     failures: list = field(default_factory=list)
     seconds: float = 0.0
     notes: list = field(default_factory=list)     # how verified statements were decided
+    seed: Optional[int] = None        # of the lemmas' second opinion (--seed reproduces a run)
 
     @property
     def ok(self) -> bool:

@@ -3,7 +3,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..foundation.limits import DEFAULT_LIMITS, Limits, time_limit
 from ..kernel.evaluation import Evaluator
 from ..language.parsing import parse_expression
 
@@ -11,8 +11,9 @@ __all__ = ["evaluate", "evaluate_value"]
 
 
 def evaluate_value(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS):
-    """Value of an expression text: a Fraction, or a tuple for a list."""
-    return Evaluator(env, limits).value(parse_expression(text, limits))
+    """Value of an expression text: a Fraction, or a tuple for a list (within `seconds`)."""
+    with time_limit(limits.seconds):
+        return Evaluator(env, limits).value(parse_expression(text, limits))
 
 
 def evaluate(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS) -> Fraction:
@@ -24,4 +25,5 @@ def evaluate(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS
     (Fraction(-4, 1), Fraction(512, 1))
     """
     expr = parse_expression(text, limits)
-    return Evaluator(env, limits).number(expr)
+    with time_limit(limits.seconds):
+        return Evaluator(env, limits).number(expr)

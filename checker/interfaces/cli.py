@@ -96,17 +96,23 @@ def _cmd_functions(out) -> int:
 def _cmd_rules(out) -> int:
     from ..kernel.rules import RULES, WHOLE_LINE_RULES
     for rule in RULES.values():
-        print(f"{rule.name}\n    {rule.statement}\n    needs: {rule.conditions}\n    source: {rule.source}",
-              file=out)
+        if not rule.laws:
+            print(f"{rule.name}\n    {rule.statement}\n    needs: {rule.conditions}\n    source: {rule.source}",
+                  file=out)
+            continue
+        print(rule.name, file=out)
+        for call, statement, conditions, source in rule.laws:
+            print(f"    on {call}: {statement}\n        needs: {conditions}\n        source: {source}", file=out)
     for name, (statement, conditions, source) in WHOLE_LINE_RULES.items():
         head = "claim LABEL" if name == "claim" else name
         print(f"{head}\n    {statement}\n    needs: {conditions}", file=out)
     print("lemma NAME(E1, ...)\n    previous line - next line = c * (lhs - rhs) of the lemma at the values E1, ...\n"
           "    needs: the lemma was proved above or came by `use`; its assumptions hold for the values",
           file=out)
-    print("\nIn lemmas every rule also takes parameters: its side conditions are derived from the "
-          "lemma's assumptions\n(gcd, signs, residues, divisibility) and refused, naming the condition, "
-          "when they cannot be.", file=out)
+    print("\nIn lemmas reduce, reciprocity (of s and s_p), negate, inverse, common_factor, three_term and "
+          "bridge take parameters:\ntheir side conditions are derived from the lemma's assumptions (gcd, signs, "
+          "residues, divisibility)\nand refused, naming the condition, when they cannot be; the other laws need "
+          "numbers.", file=out)
     return EXIT_OK
 
 

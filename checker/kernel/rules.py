@@ -39,6 +39,7 @@ class Rule:
     conditions: str           # side conditions, in words
     source: str               # where the identity is published
     rewrite: Callable         # (atom, target_atoms, limits) -> list[NF]
+    laws: tuple = ()          # for a name that covers several laws: (call, identity, conditions, source)
 
 
 # Rules that act on a whole line rather than on one call (handled by the kernel).
@@ -536,16 +537,24 @@ def _unfold(atom, target, limits):
 RULES: dict[str, Rule] = {r.name: r for r in [
     Rule("reduce", "s(h, k) = s(h', k) for h' = h (mod k), by default h mod k; also s_p(h, k), and s_n(A; b) modulo b",
          "k >= 1 (b >= 1)", "definition (periodicity of the sawtooth)", _reduce),
-    Rule("reciprocity", "s(h, k) = -1/4 + (h/k + k/h + 1/(hk))/12 - s(k, h); Apostol's law for s_p, p odd; "
-         "s(h, k; x, y) + s(k, h; y, x) = ((x))((y)) + (h/k Bbar_2(y) + Bbar_2(hy + kx)/(hk) + k/h Bbar_2(x))/2 "
-         "unless x, y are both integers (then Dedekind's right side); for pairwise coprime A = [a_1..a_d], "
-         "d >= 2: sum_j s_n(A without a_j; a_j) = 1 - poly_A(0) at n = 0 and -poly_A(-n) for "
-         "1 <= n <= a_1 + ... + a_d - 1",
-         "h >= 1, k >= 1, gcd(h, k) = 1; p odd; x, y rational; for fourier_dedekind(n, A', b): A = A' + [b] "
-         "positive and pairwise coprime, n in that range, the other d - 1 sums read from the next line "
-         "(lists in any order, else increasing; sums modulo 1 may be left out)",
-         "Dedekind (1892); Apostol, Duke Math. J. 17 (1950); Rademacher, Acta Arith. 9 (1964); "
-         "Zagier, Math. Ann. 202 (1973) and Gessel, Electron. J. Combin. 4(2) (1997) #R11", _reciprocity),
+    Rule("reciprocity", "each sum plus its reciprocal partner(s) is an explicit constant (four laws below)",
+         "positive, coprime arguments; see each law", "see each law", _reciprocity, (
+             ("dedekind(h, k)", "s(h, k) = -1/4 + (h/k + k/h + 1/(hk))/12 - s(k, h)",
+              "h >= 1, k >= 1, gcd(h, k) = 1", "Dedekind (1892); Rademacher & Grosswald (1972), ch. 2"),
+             ("generalized_dedekind(p, h, k)",
+              "(p+1)(h k^p s_p(h,k) + k h^p s_p(k,h)) = sum_j C(p+1,j)(-1)^j B_j B_(p+1-j) h^j k^(p+1-j) + p B_(p+1)",
+              "p odd, h >= 1, k >= 1, gcd(h, k) = 1", "Apostol, Duke Math. J. 17 (1950)"),
+             ("dedekind_rademacher(h, k, x, y)",
+              "s(h, k; x, y) + s(k, h; y, x) = ((x))((y)) + (h/k Bbar_2(y) + Bbar_2(hy + kx)/(hk) + k/h Bbar_2(x))/2 "
+              "when x, y are not both integers; = -1/4 + (h/k + k/h + 1/(hk))/12 when they are",
+              "h >= 1, k >= 1, gcd(h, k) = 1; x, y rational", "Rademacher, Acta Arith. 9 (1964)"),
+             ("fourier_dedekind(n, A', b)",
+              "with A = A' + [b] = [a_1, ..., a_d]: sum_j s_n(A without a_j; a_j) = 1 - poly_A(0) at n = 0, "
+              "-poly_A(-n) for 1 <= n <= a_1 + ... + a_d - 1 (poly_A = partitions_polynomial_part(., A))",
+              "d >= 2; A positive and pairwise coprime; n in that range; the other d - 1 sums are read from "
+              "the next line (lists in any order, else increasing; sums modulo 1 may be left out)",
+              "Zagier, Math. Ann. 202 (1973); Gessel, Electron. J. Combin. 4(2) (1997) #R11"),
+         )),
     Rule("negate", "s(h, k) = -s(-h, k); s_p(h, k) = (-1)^p s_p(-h, k)", "k >= 1",
          "definition (the sawtooth is odd)", _negate),
     Rule("inverse", "s(h, k) = s(h', k) where h h' = 1 (mod k)", "gcd(h, k) = 1",

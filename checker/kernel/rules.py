@@ -17,6 +17,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
+from itertools import islice, product
 from math import comb, gcd
 from typing import Callable
 
@@ -206,50 +207,72 @@ def _same_multiset(xs, ys) -> bool:
     return sorted(xs) == sorted(ys)
 
 
-def _list_as_written(name, first, parts, last, target, pos):
-    """The list of parts as the next line writes it in a call `name`, else in increasing order.
-
-    `pos` is the position of the list among the arguments; `first`/`last` the other arguments."""
+def _lists_as_written(name, first, parts, last, target, pos) -> list:
+    """Every way the next line writes the list of parts in a call `name` (same multiset, same other
+    arguments), else the list in increasing order.  `pos` is the position of the list among the
+    arguments; `first`/`last` the other arguments (last None: not compared)."""
+    found = []
     for a in sorted(target, key=atom_text):
-        if a[0] != name or len(a[1]) != 3 - (name != "fourier_dedekind") or not isinstance(a[1][pos], tuple):
+        if a[0] != name or len(a[1]) != pos + 1 + (last is not None) or not isinstance(a[1][pos], tuple):
             continue
         if a[1][0] != first or (last is not None and a[1][2] != last):
             continue
         written = a[1][pos]
         if all(isinstance(x, Fraction) and x.denominator == 1 for x in written) \
                 and _same_multiset([x.numerator for x in written], parts):
-            return written
-    return tuple(Fraction(x) for x in sorted(parts))
+            found.append(written)
+    return found or [tuple(Fraction(x) for x in sorted(parts))]
 
 
 def _companions(n, A, skip, target):
-    """The sums s_n(A without a_j; a_j) for j != skip: a list of (modulus, NF)."""
+    """The sums s_n(A without a_j; a_j) for j != skip: a list of (modulus, [NF, ...]), one NF for
+    each way the next line writes that sum, and for the list in the order of A."""
     out = []
     for j, a in enumerate(A):
         if j == skip:
             continue
         rest = A[:j] + A[j + 1:]
-        written = _list_as_written("fourier_dedekind", Fraction(n), rest, Fraction(a), target, 1)
-        out.append((a, _call("fourier_dedekind", n, written, a)))
+        forms = _lists_as_written("fourier_dedekind", Fraction(n), rest, Fraction(a), target, 1)
+        in_order = tuple(Fraction(x) for x in rest)       # A without a_j, in the order A is written
+        if in_order not in forms:
+            forms.append(in_order)
+        out.append((a, [_call("fourier_dedekind", n, written, a) for written in forms]))
     return out
 
 
-def _polynomial_part_forms(m, A, target, limits) -> list[NF]:
-    """poly_A(m) as a call partitions_polynomial_part(m, A), and as its value."""
+_MAX_WRITINGS = 64      # ways to pick the written companions (repeated parts only)
+
+
+def _polynomial_part_forms(m, A, target, limits, also=()) -> list[NF]:
+    """poly_A(m) as a call partitions_polynomial_part(m, A) (its list as the next line writes it, else
+    increasing, or as in `also`), and as its value."""
     if limits is not None:
         limits.require("terms", len(A) ** 2, f"the polynomial part of p_A for {len(A)} parts")
-    written = _list_as_written("partitions_polynomial_part", Fraction(m), A, None, target, 1)
-    return [_call("partitions_polynomial_part", m, written), constant(poly_at(m, A))]
+    forms = _lists_as_written("partitions_polynomial_part", Fraction(m), A, None, target, 1)
+    forms += [w for w in also if w not in forms]
+    return [_call("partitions_polynomial_part", m, written) for written in forms] + [constant(poly_at(m, A))]
 
 
-def _with_and_without_unit_moduli(base: NF, companions, sign: Fraction) -> list[NF]:
-    """base + sign * (sum of companions); and the same without those modulo 1 (they are 0)."""
-    full, short = dict(base), dict(base)
-    for a, nf in companions:
-        full = add(full, scale(nf, sign))
-        if a != 1:
-            short = add(short, scale(nf, sign))
-    return _unique_nfs([full, short])
+def _with_and_without_unit_moduli(base: NF, companions, sign: Fraction, atom=None) -> list[NF]:
+    """base + sign * (sum of companions), for each choice of their writings; the same without the
+    sums modulo 1 (they are 0); and, when the call being replaced is itself among its companions
+    (repeated parts 1), the law solved for it: (base + sign * (the others)) / m, m its multiplicity."""
+    out = []
+    own = atom_nf(atom) if atom is not None else None
+    for choice in islice(product(*[forms for _, forms in companions]), _MAX_WRITINGS):
+        full, short, others, m = dict(base), dict(base), dict(base), 1
+        for (a, _), nf in zip(companions, choice):
+            full = add(full, scale(nf, sign))
+            if a != 1:
+                short = add(short, scale(nf, sign))
+            if nf == own:
+                m += 1
+            else:
+                others = add(others, scale(nf, sign))
+        out.extend([full, short])
+        if m > 1:
+            out.append(scale(others, Fraction(1, m)))
+    return _unique_nfs(out)
 
 
 def _unique_nfs(xs):
@@ -274,7 +297,7 @@ def _fourier_reciprocity(atom, target, limits) -> list[NF]:
     out = []
     for poly in _polynomial_part_forms(-n, A, target, limits):
         base = add(constant(Fraction(1 if n == 0 else 0)), scale(poly, Fraction(-1)))
-        out.extend(_with_and_without_unit_moduli(base, _companions(n, A, len(A) - 1, target), Fraction(-1)))
+        out.extend(_with_and_without_unit_moduli(base, _companions(n, A, len(A) - 1, target), Fraction(-1), atom))
     return out
 
 
@@ -325,10 +348,12 @@ def _compose(atom, target, limits):
         except RuleRefused as e:
             reasons.append(e.message)
             continue
-        j = len(parts)                       # the sum being replaced is the one modulo b
-        for poly in _polynomial_part_forms(n, whole, target, limits):
+        # A as the partitions call writes it; the sum being replaced is one modulo b (the first:
+        # with repeated parts 1 the others modulo b are its companions, written either way)
+        j = whole.index(b)
+        for poly in _polynomial_part_forms(n, whole, target, limits, (written,)):
             base = add(atom_nf(a), scale(poly, Fraction(-1)))
-            out.extend(_with_and_without_unit_moduli(base, _companions(m, A, j, target), Fraction(-1)))
+            out.extend(_with_and_without_unit_moduli(base, _companions(m, whole, j, target), Fraction(-1), atom))
     if not out:
         _refuse(reasons[0] if reasons else
                 f"read backwards, the decomposition turns {atom_text(atom)} into p_A(n) minus the rest, "

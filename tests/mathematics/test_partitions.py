@@ -81,7 +81,7 @@ def test_large_n_against_exact_closed_form_two_parts():
 
 
 def test_decomposition_into_fourier_dedekind_sums():
-    # Beck & Robins, Theorem 1.8 / ch. 8: for pairwise coprime A,
+    # Gessel, Electron. J. Combin. 4(2) (1997) #R11 (partial fractions): for pairwise coprime A,
     # p_A(n) = polynomial part + sum_j s_{-n}(A without a_j; a_j)
     parts = [4, 9, 11, 13]
     poly = polynomial_part(parts)
@@ -92,13 +92,13 @@ def test_decomposition_into_fourier_dedekind_sums():
 
 
 def test_polynomial_part_of_two_coprime_parts():
-    # Beck & Robins, ch. 1: the polynomial part for A = {a, b} is n/(ab) + 1/(2a) + 1/(2b)
+    # Popoviciu (1953): the polynomial part for A = {a, b} is n/(ab) + 1/(2a) + 1/(2b)
     exact(polynomial_part([3, 7])[1], Fraction(1, 21))
     exact(polynomial_part([3, 7])[0], Fraction(1, 6) + Fraction(1, 14))
 
 
 def test_reciprocity_of_the_extension():
-    # Ehrhart-Macdonald-type reciprocity (Beck & Robins, ch. 4): P_A(-n) = (-1)^(d-1) P_A(n - sum A)
+    # Ehrhart-Macdonald-type reciprocity (Stanley, EC I, 4.6): P_A(-n) = (-1)^(d-1) P_A(n - sum A)
     rng = random.Random(9)
     for _ in range(40):
         parts = [rng.randint(1, 15) for _ in range(rng.randint(1, 4))]

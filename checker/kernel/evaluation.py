@@ -145,6 +145,8 @@ class Evaluator:
         e = exponent.numerator
         if base == 0 and e < 0:
             raise DomainError("0 to a negative power is a division by zero").at(node)
+        if e == 0:
+            return Fraction(1)               # 0^0 = 1, the project's one convention
         if base in (0, 1):
             return base
         if base == -1:

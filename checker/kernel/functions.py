@@ -25,7 +25,7 @@ from ..mathematics.elementary import binomial, ceil, floor, frac, gcd, lcm, mod,
 from ..foundation.errors import CertificateError, DomainError
 from ..mathematics.floor_sums import floor_sum as _floor_sum
 from ..mathematics.fourier_dedekind import fourier_dedekind as _fourier_dedekind_direct
-from ..mathematics.fourier_dedekind_reciprocity import by_reciprocity, reciprocity_cost
+from ..mathematics.fourier_dedekind_reciprocity import by_reciprocity, polynomial_part_cost, reciprocity_cost
 from ..mathematics.residues import jacobi as _jacobi, reciprocal_mod as _reciprocal_mod
 from ..mathematics.frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from ..foundation.limits import Limits
@@ -203,8 +203,8 @@ def _cost_polynomial_part(n, parts):
         parts = check_parts(parts)
     except CertificateError:
         return None
-    bits = sum(a.bit_length() for a in parts)
-    return ("terms", len(parts) ** 2 * bits // 64, "the polynomial part of P_A")
+    bits = max(a.bit_length() for a in parts)
+    return ("terms", polynomial_part_cost(len(parts), bits), f"the polynomial part of P_A for {len(parts)} parts")
 
 
 def _cost_extended(n, parts):

@@ -25,7 +25,7 @@ from ..mathematics.bernoulli import bernoulli, periodic_bernoulli
 from ..mathematics.dedekind import reciprocity_term
 from ..mathematics.elementary import sawtooth
 from ..mathematics.fourier_dedekind_reciprocity import (bridge_constant, coprimality_problem, poly_at,
-                                                        reciprocity_range_problem, reciprocity_total)
+                                                        polynomial_part_cost, reciprocity_range_problem)
 from ..foundation.errors import RuleRefused
 from .normal import NF, add, atom_nf, atom_text, constant, mul, scale
 from ..foundation.numbers import value_text
@@ -247,7 +247,8 @@ def _polynomial_part_forms(m, A, target, limits, also=()) -> list[NF]:
     """poly_A(m) as a call partitions_polynomial_part(m, A) (its list as the next line writes it, else
     increasing, or as in `also`), and as its value."""
     if limits is not None:
-        limits.require("terms", len(A) ** 2, f"the polynomial part of p_A for {len(A)} parts")
+        limits.require("terms", polynomial_part_cost(len(A), max(A).bit_length()),
+                       f"the polynomial part of p_A for {len(A)} parts")
     forms = _lists_as_written("partitions_polynomial_part", Fraction(m), A, None, target, 1)
     forms += [w for w in also if w not in forms]
     return [_call("partitions_polynomial_part", m, written) for written in forms] + [constant(poly_at(m, A))]

@@ -132,6 +132,9 @@ def _reciprocity(facts, limits, atom, target):
                 * h ** j * k ** (p + 1 - j)
         other = scale(_call(name, Fraction(p), k, h), -(p + 1) * k * h ** p / lead)
         return [add(_c(total / lead), other)]
+    if name in ("fourier_dedekind", "dedekind_rademacher"):
+        _refuse(f"reciprocity for {name} has no form for calls with parameters (its side conditions, "
+                "pairwise coprimality and the range of n, are not derived); give the arguments numbers")
     _refuse(f"it does not apply to {name}")
 
 

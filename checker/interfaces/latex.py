@@ -105,10 +105,12 @@ def expression_latex(node) -> str:
         out = []
         for i, (sign, term) in enumerate(node.terms):
             t = expression_latex(term)
+            # a sum inside a sum came from parentheses: 1 - (2 + 3) is not 1 - 2 + 3
             if i == 0:
-                out.append(t if sign > 0 else "-" + t)
+                out.append(t if sign > 0 else "-" + (_paren(term) if isinstance(term, ex.Sum) else t))
             else:
-                out.append((" + " if sign > 0 else " - ") + (_paren(term) if isinstance(term, ex.Neg) else t))
+                out.append((" + " if sign > 0 else " - ")
+                           + (_paren(term) if isinstance(term, (ex.Neg, ex.Sum)) else t))
         return "".join(out)
     if isinstance(node, ex.Product):
         num = [f for d, f in node.factors if not d]

@@ -58,3 +58,12 @@ def test_latex_compiles(tmp_path):
         out = subprocess.run(["pdflatex", "-interaction=nonstopmode", "-halt-on-error", tex.name],
                              cwd=tmp_path, capture_output=True, text=True, timeout=120)
         assert out.returncode == 0, out.stdout[-2000:]
+
+
+def test_parentheses_of_a_subtracted_sum_are_kept():
+    # common practice: a - (b + c) must not print as a - b + c
+    from checker.interfaces.latex import expression_latex
+    from checker.language.parsing import parse_expression
+    assert expression_latex(parse_expression("1 - (2 + 3)")) == r"1 - \left(2 + 3\right)"
+    assert expression_latex(parse_expression("1 - (2 - 3) + (4 + 5)")) == \
+        r"1 - \left(2 - 3\right) + \left(4 + 5\right)"

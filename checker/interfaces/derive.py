@@ -118,15 +118,24 @@ def derive_fourier_dedekind(n: int, parts, b: int, label: str = "derived") -> st
     if b > 1 and reduced and _pairwise_coprime(whole):
         out += _law_chain(m, reduced, b, None)
         return "\n".join(out) + "\n"
-    out.append(f"  = {value_text(fourier_dedekind(m, reduced, b))}    by value")
+    out.append(f"  = {value_text(_fd_value(m, reduced, b))}    by value")
     return "\n".join(out) + "\n"
+
+
+def _fd_value(n: int, parts, b: int) -> Fraction:
+    """s_n(parts; b) through the kernel, so that its budget is met before any work."""
+    return Evaluator().call("fourier_dedekind", (Fraction(n), tuple(Fraction(a) for a in parts), Fraction(b)))
 
 
 def _law_chain(m: int, reduced, b: int, label, bridge: bool = False) -> list[str]:
     """Lines applying reciprocity for A = reduced + [b] at n = m, then values (or bridges)."""
     from ..mathematics.fourier_dedekind import fourier_dedekind
     from ..mathematics.fourier_dedekind_reciprocity import bridge_constant, poly_at
+    from ..foundation.limits import DEFAULT_LIMITS
+    from ..mathematics.fourier_dedekind_reciprocity import polynomial_part_cost
     whole = reduced + [b]
+    DEFAULT_LIMITS.require("terms", polynomial_part_cost(len(whole), b.bit_length()),
+                           f"the polynomial part of p_A for {len(whole)} parts")
     out = [] if label is None else [f"chain {label}: {_fd_text(m, reduced, b)}"]
     head = "1 - " if m == 0 else "-"
     poly = f"partitions_polynomial_part({value_text(-m)}, {_list_text(sorted(whole))})"
@@ -139,7 +148,7 @@ def _law_chain(m: int, reduced, b: int, label, bridge: bool = False) -> list[str
                + "    by reciprocity")
     total = (1 if m == 0 else 0) - poly_at(-m, whole)
     if not bridge:
-        value = total - sum(fourier_dedekind(m, rest, a) for a, rest in companions)
+        value = total - sum(_fd_value(m, rest, a) for a, rest in companions)
         out.append(f"  = {value_text(value)}    by value")
         return out
     terms, rules = [], []

@@ -179,7 +179,8 @@ def _cost_fourier(n, parts, b):
     if fast is not None:
         ints, modulus = fast
         return ("terms", reciprocity_cost(ints, modulus),
-                f"a Fourier-Dedekind sum by reciprocity: {m} sums modulo the parts {ints}")
+                f"a Fourier-Dedekind sum by reciprocity: {m} sums modulo the entries (up to "
+                f"{max(a % modulus for a in ints)}) and a polynomial part")
     return ("terms", bb * m, f"a Fourier-Dedekind sum with {m} parameters modulo {bb}")
 
 

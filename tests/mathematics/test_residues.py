@@ -67,3 +67,11 @@ def test_the_functions_in_the_language():
     assert evaluate("jacobi(2, 15)") == 1
     assert evaluate("reciprocal_mod(5, 17)") == 7
     assert evaluate("round(-5/2) + round(5/2)") == 1
+
+
+@given(st.integers(-10**6, 10**6), st.integers(0, 10**5))
+def test_jacobi_against_eulers_criterion(a, half):
+    # the slow reference of tests/reference.py (Euler's criterion on each prime factor, via sympy.factorint)
+    from reference import jacobi_by_euler
+    n = 2 * half + 1
+    assert jacobi(a, n) == jacobi_by_euler(a, n)

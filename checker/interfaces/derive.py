@@ -112,7 +112,12 @@ def derive_fourier_dedekind(n: int, parts, b: int, label: str = "derived") -> st
         out.append(f"  = {_line(const, -1, x, b)}    by bridge")
         out += _euclid_lines(x, b, const, -1)
         if _pairwise_coprime(whole) and b > 1:
-            out += ["", "# the same value by the reciprocity law for A = [a, c, b], each companion bridged"]
+            A = sorted(whole)
+            sums = " + ".join(_fd_text(0, sorted(whole[:j] + whole[j + 1:]), x) for j, x in enumerate(whole))
+            out += ["", f"# the reciprocity law for the pairwise coprime A = {_list_text(A)}: the three sums add up to",
+                    "# 1 minus the polynomial part of p_A at 0 (Zagier 1973; Gessel 1997)",
+                    f"claim {label}_law_at_0: {sums} = 1 - partitions_polynomial_part(0, {_list_text(A)})",
+                    "# the same value by that law, each companion bridged"]
             out += _law_chain(m, reduced, b, label + "_law", bridge=True)
         return "\n".join(out) + "\n"
     if b > 1 and reduced and _pairwise_coprime(whole):

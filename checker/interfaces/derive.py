@@ -162,7 +162,9 @@ def _law_chain(m: int, reduced, b: int, label, bridge: bool = False) -> list[str
         total -= bridge_constant(a)
         terms.append(f" + dedekind({x}, {a})")
         rules.append("bridge")
-    out.append(f"  = {value_text(total)}" + "".join(terms) + f"    by {', '.join(rules)}, value")
+    out.append(f"  = {value_text(total)}" + "".join(terms) + f"    by {', '.join(rules + ['value'])}")
+    if not terms:                  # every companion was modulo 1: the line is already the value
+        return out
     value = total + sum(_dedekind_value(p * pow(q, -1, a) % a, a) for a, (p, q) in companions)
     out.append(f"  = {value_text(value)}    by value")
     return out

@@ -21,8 +21,8 @@ k k' = 1 (mod h) (the bridge below).
 
 Reciprocity is also an algorithm: s_n(a_1, ..., a_m; b) with small pairwise
 coprime a_i and a huge b is, by the law for A = [a_1, ..., a_m, b], a
-polynomial part (O(m^2) operations) minus m sums modulo the small a_i, so it
-costs O(m (a_1 + ... + a_m)) instead of O(m b).
+polynomial part (its cost depends on m only, not on b) minus m sums modulo the
+small a_i, so it costs O(m (a_1 + ... + a_m)) instead of O(m b).
 
 >>> from checker.mathematics.fourier_dedekind import fourier_dedekind
 

@@ -113,8 +113,9 @@ def partitions_by_quasipolynomial(n, parts) -> Fraction:
 def polynomial_part(parts) -> list[Fraction]:
     """Coefficients c_0, ..., c_{d-1} of the polynomial part W_1(n) = sum c_j n^j.
 
-    Only the pole at z = 1 is expanded: O(d^2) operations on numbers of the
-    size of the parts, so parts like 10^30 cost no more than small ones.
+    Only the pole at z = 1 is expanded: d products of power series of length d,
+    on numbers of the size of the parts, so parts like 10^30 cost no more than
+    small ones (the number of parts d is what costs).
     For A = [a, b] it is n/(ab) + 1/(2a) + 1/(2b) (Popoviciu, 1953):
 
     >>> polynomial_part([3, 5])

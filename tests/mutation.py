@@ -74,7 +74,7 @@ _NUMBER = re.compile(r"(?<![A-Za-z_0-9])\d+")
 
 
 RULE_NAMES = ["reduce", "reciprocity", "negate", "inverse", "common_factor", "three_term",
-              "definition", "value", "arithmetic"]
+              "definition", "value", "arithmetic", "decomposition", "bridge"]
 _RULE = re.compile(r"\b(" + "|".join(RULE_NAMES) + r")\b")
 _OPERATOR_SWAPS = {"*": "/", "/": "*", "^": "*"}
 

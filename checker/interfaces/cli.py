@@ -118,15 +118,16 @@ def _cmd_functions(out) -> int:
     return EXIT_OK
 
 
-def _rule_entries() -> list[tuple[str, str, str, str | None]]:
-    """(name, statement, side conditions, source) for each rule a step may cite."""
+def _rule_entries() -> list[tuple]:
+    """(name, statement, side conditions, source, laws or None) for each rule a step may cite."""
     from ..kernel.rules import RULES, WHOLE_LINE_RULES
-    entries = [(r.name, r.statement, r.conditions, r.source) for r in RULES.values()]
+    entries = [(r.name, r.statement, r.conditions, r.source, r.laws) for r in RULES.values()]
     for name, (statement, conditions, source) in WHOLE_LINE_RULES.items():
-        entries.append(("claim LABEL" if name == "claim" else name, statement, conditions, source))
+        entries.append(("claim LABEL" if name == "claim" else name, statement, conditions, source, None))
     entries.append(("lemma NAME(E1, ...)",
                     "previous line - next line = c * (lhs - rhs) of the lemma at the values E1, ...",
-                    "the lemma was proved above or came by `use`; its assumptions hold for the values", None))
+                    "the lemma was proved above or came by `use`; its assumptions hold for the values", None,
+                    None))
     return entries
 
 
@@ -138,13 +139,19 @@ def _cmd_rules(out, name: str | None = None) -> int:
             names = ", ".join(e[0].split()[0] for e in entries)
             raise UsageError(f"there is no rule called '{name}'; the rules are {names}")
         entries = chosen
-    for head, statement, conditions, source in entries:
+    for head, statement, conditions, source, laws in entries:
+        if laws:
+            print(head, file=out)
+            for call, law, needs, origin in laws:
+                print(f"    on {call}: {law}\n        needs: {needs}\n        source: {origin}", file=out)
+            continue
         print(f"{head}\n    {statement}\n    needs: {conditions}"
               + (f"\n    source: {source}" if source else ""), file=out)
     if not name:
-        print("\nIn lemmas every rule also takes parameters: its side conditions are derived from the "
-              "lemma's assumptions\n(gcd, signs, residues, divisibility) and refused, naming the condition, "
-              "when they cannot be.", file=out)
+        print("\nIn lemmas reduce, reciprocity (of s and s_p), negate, inverse, common_factor, three_term and "
+              "bridge take parameters:\ntheir side conditions are derived from the lemma's assumptions (gcd, "
+              "signs, residues, divisibility)\nand refused, naming the condition, when they cannot be; the other "
+              "laws need numbers.", file=out)
     return EXIT_OK
 
 

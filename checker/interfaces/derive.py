@@ -17,7 +17,7 @@ from ..language.expressions import Call
 from ..foundation.numbers import value_text
 from ..language.parsing import parse_expression
 
-__all__ = ["derive", "derive_dedekind"]
+__all__ = ["derive", "derive_dedekind", "derive_fourier_dedekind"]
 
 
 def _line(c: Fraction, sign: int, h: int, k: int) -> str:
@@ -34,13 +34,23 @@ def derive_dedekind(h: int, k: int, label: str = "derived") -> str:
     out = [f'title "s({value_text(h)}, {value_text(k)}) by reciprocity and reduction"',
            "# written by quasicert derive; check it with: quasicert check FILE",
            f"chain {label}: dedekind({value_text(h)}, {value_text(k)})"]
+    out += _euclid_lines(h, k)
+    return "\n".join(out) + "\n"
+
+
+def _euclid_lines(h: int, k: int, offset: Fraction = Fraction(0), outer: int = 1) -> list[str]:
+    """The steps from the line  offset + outer * s(h, k)  down to its value."""
+    def line(c, sign, a, b):
+        return _line(offset + outer * c, outer * sign, a, b)
+
+    out = []
     g = gcd(h, k)
     if g > 1:
         h, k = h // g, k // g
-        out.append(f"  = dedekind({value_text(h)}, {value_text(k)})    by common_factor")
+        out.append(f"  = {line(Fraction(0), 1, h, k)}    by common_factor")
     if not 0 <= h < k:
         h %= k
-        out.append(f"  = dedekind({value_text(h)}, {value_text(k)})    by reduce")
+        out.append(f"  = {line(Fraction(0), 1, h, k)}    by reduce")
     # the pairs met by reciprocity followed by reduce: (h, k) -> (k mod h, h)
     chain = [(h, k)]
     while chain[-1][0]:
@@ -60,10 +70,109 @@ def derive_dedekind(h: int, k: int, label: str = "derived") -> str:
         sign = -sign
         # the line c + sign * s(a, b) keeps the value: c = s(h, k) - sign * s(a, b)
         c = Fraction(total * b - sign * k0 * twelve[(a, b)], 12 * k0 * b)
-        out.append(f"  = {_line(c, sign, a, b)}    by reciprocity, reduce")
-    value = Fraction(total, 12 * k0)
+        out.append(f"  = {line(c, sign, a, b)}    by reciprocity, reduce")
+    value = offset + outer * Fraction(total, 12 * k0)
     out.append(f"  = {value_text(value)}    by value")
+    return out
+
+
+def _fd_text(n, parts, b) -> str:
+    return f"fourier_dedekind({value_text(n)}, {_list_text(parts)}, {value_text(b)})"
+
+
+def _pairwise_coprime(values) -> bool:
+    return all(v >= 1 for v in values) and all(gcd(x, y) == 1 for i, x in enumerate(values)
+                                                for y in values[i + 1:])
+
+
+def derive_fourier_dedekind(n: int, parts, b: int, label: str = "derived") -> str:
+    """A certificate for s_n(A; b): reduce modulo b; for two entries and n = 0 (mod b) the bridge to
+    a Dedekind sum and its Euclid-like chain (and, for pairwise coprime [a, c, b], the reciprocity
+    law with both companions bridged); for pairwise coprime entries and b the reciprocity law,
+    which costs O(sum of the entries) however large b is; otherwise the value."""
+    from ..mathematics.fourier_dedekind import fourier_dedekind
+    from ..mathematics.fourier_dedekind_reciprocity import bridge_constant, poly_at
+    if b < 1:
+        raise DomainError(f"fourier_dedekind(n, A, b) needs b >= 1, not {b}")
+    fourier_dedekind(n % b, [a % b for a in parts], 1)     # only the argument checks
+    for a in parts:
+        if gcd(a, b) != 1:
+            raise DomainError(f"fourier_dedekind needs every entry coprime to {b}, but gcd({a}, {b}) = {gcd(a, b)}")
+    out = [f'title "{_fd_text(n, parts, b)} by its laws"',
+           "# written by quasicert derive; check it with: quasicert check FILE",
+           f"chain {label}: {_fd_text(n, parts, b)}"]
+    m, reduced = n % b, [a % b for a in parts]
+    if (m, reduced) != (n, list(parts)):
+        out.append(f"  = {_fd_text(m, reduced, b)}    by reduce")
+    whole = reduced + [b]
+    if len(reduced) == 2 and m == 0:
+        a, c = reduced
+        x = a * pow(c, -1, b) % b if b > 1 else 0
+        const = bridge_constant(b)
+        out.append(f"  = {_line(const, -1, x, b)}    by bridge")
+        out += _euclid_lines(x, b, const, -1)
+        if _pairwise_coprime(whole) and b > 1:
+            A = sorted(whole)
+            sums = " + ".join(_fd_text(0, sorted(whole[:j] + whole[j + 1:]), x) for j, x in enumerate(whole))
+            out += ["", f"# the reciprocity law for the pairwise coprime A = {_list_text(A)}: the three sums add up to",
+                    "# 1 minus the polynomial part of p_A at 0 (Zagier 1973; Gessel 1997)",
+                    f"claim {label}_law_at_0: {sums} = 1 - partitions_polynomial_part(0, {_list_text(A)})",
+                    "# the same value by that law, each companion bridged"]
+            out += _law_chain(m, reduced, b, label + "_law", bridge=True)
+        return "\n".join(out) + "\n"
+    if b > 1 and reduced and _pairwise_coprime(whole):
+        out += _law_chain(m, reduced, b, None)
+        return "\n".join(out) + "\n"
+    out.append(f"  = {value_text(_fd_value(m, reduced, b))}    by value")
     return "\n".join(out) + "\n"
+
+
+def _fd_value(n: int, parts, b: int) -> Fraction:
+    """s_n(parts; b) through the kernel, so that its budget is met before any work."""
+    return Evaluator().call("fourier_dedekind", (Fraction(n), tuple(Fraction(a) for a in parts), Fraction(b)))
+
+
+def _law_chain(m: int, reduced, b: int, label, bridge: bool = False) -> list[str]:
+    """Lines applying reciprocity for A = reduced + [b] at n = m, then values (or bridges)."""
+    from ..mathematics.fourier_dedekind import fourier_dedekind
+    from ..mathematics.fourier_dedekind_reciprocity import bridge_constant, poly_at
+    from ..foundation.limits import DEFAULT_LIMITS
+    from ..mathematics.fourier_dedekind_reciprocity import polynomial_part_cost
+    whole = reduced + [b]
+    DEFAULT_LIMITS.require("terms", polynomial_part_cost(len(whole), b.bit_length()),
+                           f"the polynomial part of p_A for {len(whole)} parts")
+    out = [] if label is None else [f"chain {label}: {_fd_text(m, reduced, b)}"]
+    head = "1 - " if m == 0 else "-"
+    poly = f"partitions_polynomial_part({value_text(-m)}, {_list_text(sorted(whole))})"
+    companions = []
+    for j, a in enumerate(whole[:-1]):
+        if a > 1:
+            rest = sorted(whole[:j] + whole[j + 1:])
+            companions.append((a, rest))
+    out.append(f"  = {head}{poly}" + "".join(f" - {_fd_text(m, rest, a)}" for a, rest in companions)
+               + "    by reciprocity")
+    total = (1 if m == 0 else 0) - poly_at(-m, whole)
+    if not bridge:
+        value = total - sum(_fd_value(m, rest, a) for a, rest in companions)
+        out.append(f"  = {value_text(value)}    by value")
+        return out
+    terms, rules = [], []
+    for a, (p, q) in ((a, rest) for a, rest in companions):
+        x = p * pow(q, -1, a) % a
+        total -= bridge_constant(a)
+        terms.append(f" + dedekind({x}, {a})")
+        rules.append("bridge")
+    out.append(f"  = {value_text(total)}" + "".join(terms) + f"    by {', '.join(rules + ['value'])}")
+    if not terms:                  # every companion was modulo 1: the line is already the value
+        return out
+    value = total + sum(_dedekind_value(p * pow(q, -1, a) % a, a) for a, (p, q) in companions)
+    out.append(f"  = {value_text(value)}    by value")
+    return out
+
+
+def _dedekind_value(h: int, k: int) -> Fraction:
+    from ..mathematics.dedekind import dedekind
+    return dedekind(h, k)
 
 
 def _polynomial_text(coeffs, var: str) -> str:
@@ -250,7 +359,13 @@ def derive(text: str) -> str:
         dim, rows = check_inequalities(arg)
         return derive_ehrhart(call_text, lambda t: lattice_points_inequalities(t, arg), dim,
                               inequality_vertex_denominator(rows), var.name)
+    if expr.name == "fourier_dedekind" and len(expr.args) == 3:
+        n, parts, b = [ev.value(a) for a in expr.args]
+        if not (isinstance(n, Fraction) and isinstance(b, Fraction) and isinstance(parts, tuple)
+                and all(isinstance(v, Fraction) and v.denominator == 1 for v in (n, b) + parts)):
+            raise DomainError("fourier_dedekind(n, [a1, ..., am], b) needs integers").at(expr)
+        return derive_fourier_dedekind(n.numerator, [a.numerator for a in parts], b.numerator)
     if expr.name == "frobenius" and len(expr.args) == 1:
         return derive_frobenius(ev.value(expr.args[0]))
-    raise DomainError("derive writes certificates for dedekind(h, k), partitions(n, A), "
+    raise DomainError("derive writes certificates for dedekind(h, k), fourier_dedekind(n, A, b), partitions(n, A), "
                       f"lattice_points(t, P), lattice_points_in(t, P) and frobenius(A); not for {expr.name}").at(expr)

@@ -101,9 +101,9 @@ def _call(node: ex.Call) -> str:
     if name == "sawtooth" and n == 1:
         return r"\left(\!\left(" + expression_latex(a[0]) + r"\right)\!\right)"
     if name == "floor" and n == 1:
-        return r"\left\lfloor " + expression_latex(a[0]) + r" \right\rfloor"
+        return r"\bigl\lfloor " + expression_latex(a[0]) + r" \bigr\rfloor"   # no group: a line may break inside
     if name == "ceil" and n == 1:
-        return r"\left\lceil " + expression_latex(a[0]) + r" \right\rceil"
+        return r"\bigl\lceil " + expression_latex(a[0]) + r" \bigr\rceil"
     if name == "frac" and n == 1:
         return r"\left\{ " + expression_latex(a[0]) + r" \right\}"
     if name == "mod" and n == 2:
@@ -208,6 +208,7 @@ def expression_latex(node) -> str:
         out = []
         for i, (sign, term) in enumerate(node.terms):
             t = expression_latex(term)
+            # a sum inside a sum came from parentheses: 1 - (2 + 3) is not 1 - 2 + 3
             if i == 0:
                 out.append(t if sign > 0 else "-" + (_paren(term) if isinstance(term, (ex.Neg, ex.Sum)) else t))
             else:

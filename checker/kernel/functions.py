@@ -16,14 +16,17 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
+from math import gcd as math_gcd
 from typing import Callable, Optional
 
 from ..mathematics.bernoulli import bernoulli, bernoulli_polynomial, periodic_bernoulli
 from ..mathematics.dedekind import dedekind, dedekind_rademacher, generalized_dedekind
-from ..mathematics.elementary import binomial, ceil, floor, frac, gcd, lcm, mod, sawtooth
+from ..mathematics.elementary import binomial, ceil, floor, frac, gcd, lcm, mod, round_half_up, sawtooth
 from ..foundation.errors import CertificateError, DomainError
 from ..mathematics.floor_sums import staircase as _floor_sum
-from ..mathematics.fourier_dedekind import fourier_dedekind
+from ..mathematics.fourier_dedekind import fourier_dedekind as _fourier_dedekind_direct
+from ..mathematics.fourier_dedekind_reciprocity import by_reciprocity, polynomial_part_cost, reciprocity_cost
+from ..mathematics.residues import jacobi as _jacobi, reciprocal_mod as _reciprocal_mod
 from ..mathematics.frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from ..foundation.limits import Limits
 from ..mathematics.periodic import constituents, periodic
@@ -33,7 +36,7 @@ from ..mathematics.partitions import (partitions, partitions_extended, polynomia
 
 __all__ = [
     "REGISTRY", "FunctionSpec", "FORMER_NAMES", "LITERATURE_NAMES",
-    "sawtooth", "floor", "ceil", "frac", "mod", "gcd", "lcm", "binomial",
+    "sawtooth", "floor", "ceil", "frac", "mod", "gcd", "lcm", "binomial", "round", "jacobi", "reciprocal_mod",
     "bernoulli", "bernoulli_polynomial", "periodic_bernoulli",
     "dedekind", "dedekind_rademacher", "generalized_dedekind", "fourier_dedekind",
     "partitions", "partitions_extended", "partitions_polynomial_part",
@@ -68,6 +71,48 @@ LITERATURE_NAMES = {
 def lattice_points_in(t, rows) -> Fraction:
     """#(tP intersected with Z^d) for P = {x : a.x <= b} given as rows [a1, ..., ad, b]."""
     return lattice_points_inequalities(t, rows)
+
+
+def round(x) -> Fraction:      # noqa: A001 - the language's name; Python's round is not used here
+    """The integer nearest to x, halves rounded up: floor(x + 1/2)."""
+    return round_half_up(x)
+
+
+def jacobi(a, n) -> Fraction:
+    """The Jacobi symbol (a/n) for odd n >= 1, as a Fraction."""
+    return Fraction(_jacobi(a, n))
+
+
+def reciprocal_mod(a, m) -> Fraction:
+    """The a' in [0, m) with a a' = 1 (mod m), as a Fraction."""
+    return Fraction(_reciprocal_mod(a, m))
+
+
+def _fourier_cheaper_by_reciprocity(n, parts, b):
+    """The parts and b when reciprocity is cheaper than the direct table, else None."""
+    if not (isinstance(parts, (list, tuple)) and len(parts) >= 3 and isinstance(b, Fraction)
+            and b.denominator == 1 and b > 1 and isinstance(n, Fraction) and n.denominator == 1
+            and all(isinstance(a, Fraction) and a.denominator == 1 for a in parts)):
+        return None
+    ints = [a.numerator for a in parts]
+    if any(math_gcd(a, b.numerator) != 1 for a in ints):
+        return None
+    cost = reciprocity_cost(ints, b.numerator)
+    if cost is None or cost >= len(ints) * b.numerator:
+        return None
+    return ints, b.numerator
+
+
+def fourier_dedekind(n, parts, b) -> Fraction:
+    """s_n(a_1, ..., a_m; b): directly, or by the reciprocity law when the a_i mod b are
+    small and pairwise coprime and b is large (see fourier_dedekind_reciprocity)."""
+    args = tuple(Fraction(x) if isinstance(x, int) else x for x in (n, b))
+    parts_f = tuple(Fraction(a) if isinstance(a, int) else a for a in parts) \
+        if isinstance(parts, (list, tuple)) else parts
+    fast = _fourier_cheaper_by_reciprocity(args[0], parts_f, args[1])
+    if fast is None:
+        return _fourier_dedekind_direct(n, parts, b)
+    return by_reciprocity(args[0].numerator, *fast)
 
 
 def staircase(count, a, b, m) -> Fraction:
@@ -149,11 +194,17 @@ def _cost_generalized(p, h, k):
 
 
 def _cost_fourier(n, parts, b):
-    m, b = _list_len(parts), _int_or_zero(b)
+    m, bb = _list_len(parts), _int_or_zero(b)
     if m <= 2:
         # floor sums on numbers of this size: about bits^2 word steps
-        return ("terms", b.bit_length() ** 2 // 100, f"a Fourier-Dedekind sum modulo a {b.bit_length()}-bit b")
-    return ("terms", b * m, f"a Fourier-Dedekind sum with {m} parameters modulo {b}")
+        return ("terms", bb.bit_length() ** 2 // 100, f"a Fourier-Dedekind sum modulo a {bb.bit_length()}-bit b")
+    fast = _fourier_cheaper_by_reciprocity(n, parts, b)
+    if fast is not None:
+        ints, modulus = fast
+        return ("terms", reciprocity_cost(ints, modulus),
+                f"a Fourier-Dedekind sum by reciprocity: {m} sums modulo the entries (up to "
+                f"{max(a % modulus for a in ints)}) and a polynomial part")
+    return ("terms", bb * m, f"a Fourier-Dedekind sum with {m} parameters modulo {bb}")
 
 
 def _cost_partitions(n, parts):
@@ -169,6 +220,15 @@ def _cost_partitions(n, parts):
     else:
         quasi = table
     return ("terms", quasi, f"p_A(n) for n = {n} with parts up to {biggest}")
+
+
+def _cost_polynomial_part(n, parts):
+    try:
+        parts = check_parts(parts)
+    except CertificateError:
+        return None
+    bits = max(a.bit_length() for a in parts)
+    return ("terms", polynomial_part_cost(len(parts), bits), f"the polynomial part of P_A for {len(parts)} parts")
 
 
 def _cost_extended(n, parts):
@@ -225,10 +285,16 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("floor", "x", "the largest integer <= x", floor, (1, 1), True),
     _spec("ceil", "x", "the smallest integer >= x", ceil, (1, 1), True),
     _spec("frac", "x", "x - floor(x)", frac, (1, 1), True),
+    _spec("round", "x", "the integer nearest to x, halves rounded up: floor(x + 1/2)", round,
+          (1, 1), True),
     _spec("mod", "a, m", "the residue of a modulo m in [0, |m|)", mod, (2, 2), True),
     _spec("gcd", "a, b, ...", "greatest common divisor", gcd, (1, 1000), True),
     _spec("lcm", "a, b, ...", "least common multiple", lcm, (1, 1000), True, _cost_lcm),
     _spec("binomial", "n, j", "n choose j", binomial, (2, 2), True, _cost_binomial),
+    _spec("jacobi", "a, n", "the Jacobi symbol (a/n), n odd and >= 1", jacobi, (2, 2), True,
+          lambda a, n: ("integer_bits", _int_or_zero(n).bit_length(), "a Jacobi symbol")),
+    _spec("reciprocal_mod", "a, m", "the a' in [0, m) with a a' = 1 (mod m), gcd(a, m) = 1",
+          reciprocal_mod, (2, 2), True),
     _spec("staircase", "count, a, b, m", "sum_{i=0}^{count-1} floor((a i + b)/m)", staircase,
           (4, 4), True, _cost_floor_sum),
     _spec("sawtooth", "x", "((x)) = x - floor(x) - 1/2, and 0 at integers", sawtooth, (1, 1)),
@@ -253,7 +319,8 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
           "P_A(n): the quasi-polynomial equal to p_A(n) for n > -(a1 + ... + ad)",
           partitions_extended, (2, 2), False, _cost_extended),
     _spec("partitions_polynomial_part", "n, [a1, ..., ad]",
-          "the polynomial part of P_A at n", partitions_polynomial_part, (2, 2), False, _cost_extended),
+          "the polynomial part of P_A at n", partitions_polynomial_part, (2, 2), False,
+          _cost_polynomial_part),
     _spec("frobenius", "[a1, ..., ad]", "the largest integer not a non-negative combination of A",
           frobenius, (1, 1), False, _cost_frobenius),
     _spec("nonrepresentable", "[a1, ..., ad]", "how many positive integers are not combinations of A",

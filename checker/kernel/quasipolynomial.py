@@ -261,7 +261,7 @@ def shape(node, var: str, ev) -> Shape:
         return out
     if isinstance(node, ex.Power):
         if mentions(node.exponent, var):
-            _refuse(node.exponent, f"{var} stands in an exponent, so this is not a quasi-polynomial in {var}")
+            return _unit_power(node, var, ev)
         e = ev.number(node.exponent)
         if e.denominator != 1 or e < 0:
             _refuse(node, f"a negative or fractional power of an expression in {var} is not a quasi-polynomial")
@@ -283,6 +283,22 @@ def shape(node, var: str, ev) -> Shape:
     _refuse(node, f"a list that depends on {var} is not a number")
 
 
+def _unit_power(node, var, ev) -> Shape:
+    """c^E for c = 1 or -1 and an integer-valued quasi-polynomial E: (-1)^E = 1 - 2 mod(E, 2)
+    has the period of E mod 2; 1^E = 1.  Any other base with var in the exponent is refused."""
+    if mentions(node.base, var):
+        _refuse(node.exponent, f"{var} stands in an exponent, so this is not a quasi-polynomial in {var}")
+    c = ev.value(node.base)
+    if c not in (1, -1):
+        _refuse(node.exponent, f"{var} stands in an exponent of a base other than 1 or -1, so this is "
+                               f"not a quasi-polynomial in {var}")
+    s = shape(node.exponent, var, ev)
+    if c == 1:
+        return Shape(0, 1, s.threshold)
+    period = _residue_period(node.exponent, s, 2, var, ev, "the exponent of -1")
+    return Shape(0, period, s.threshold)
+
+
 def _power_shape(s: Shape, e: int) -> Shape:
     orders = frozenset({1})
     for _ in range(min(e, 8)):
@@ -294,35 +310,75 @@ def _power_shape(s: Shape, e: int) -> Shape:
 
 # -- the rules for function calls -------------------------------------------
 
-def _fractional_period(arg, var, ev, what) -> tuple[int, int]:
-    """(degree, period of the fractional part) of a polynomial argument P(n).
+def _interpolate(xs: list, ys: list) -> list:
+    """Coefficients c_0, ..., c_D (in powers of x) of the polynomial through the points, exactly
+    (Newton's divided differences, then expanded)."""
+    table = list(ys)
+    newton = [table[0]]
+    for level in range(1, len(xs)):
+        table = [(table[i + 1] - table[i]) / (xs[i + level] - xs[i]) for i in range(len(table) - 1)]
+        newton.append(table[0])
+    coeffs = [Fraction(0)]
+    for k in range(len(newton) - 1, -1, -1):      # Horner: c <- c (x - xs[k]) + newton[k]
+        shifted = [Fraction(0)] + coeffs
+        for i, c in enumerate(coeffs):
+            shifted[i] -= xs[k] * c
+        shifted[0] += newton[k]
+        coeffs = shifted
+    return _trim(coeffs)
 
-    With D the common denominator of P's coefficients, D P(n) is an integer
-    polynomial, so D P(n) mod D, and with it {P(n)}, has period D.
-    """
+
+def _constituent_denominator(arg, s: Shape, var, ev, divisor: int = 1) -> int:
+    """The lcm M of the denominators of the coefficients (in powers of var) of every constituent
+    of arg/divisor.
+
+    The shape rules say arg is a quasi-polynomial of degree <= D and period L from its threshold
+    on, so each constituent is fixed by D + 1 of its values, interpolated exactly here.  Then
+    M * arg(n)/divisor is an integer polynomial on each residue class mod L, hence its residue mod
+    M, and with it {arg(n)/divisor}, has period lcm(L, M) (Stanley, EC I, 4.4, for the form)."""
+    D, L = s.degree, s.period
+    start = 0 if s.threshold is None else s.threshold
+    count = (D + 1) * L
+    ev.limits.require("terms", count, f"interpolating the {L} constituents of degree {D} inside a floor")
+    values = _values(arg, var, range(start, start + count), ev)
+    M = 1
+    for r in range(L):
+        xs = [Fraction(start + r + L * i) for i in range(D + 1)]
+        ys = [values[r + L * i] / divisor for i in range(D + 1)]
+        for c in _interpolate(xs, ys):
+            M = lcm(M, c.denominator)
+    return M
+
+
+def _fraction_period(arg, s: Shape, var, ev, what, divisor: int = 1) -> int:
+    """The period of {arg/divisor} as a function of var (from arg's threshold on)."""
     p = polynomial(arg, var, ev)
-    if p is None:
-        _refuse(arg, f"{what} must be a polynomial in {var}, or a periodic expression, for quasicert "
-                     "to know its period")
-    return len(p) - 1, lcm(*[c.denominator for c in p])
+    if p is not None:
+        return lcm(*[(c / divisor).denominator for c in p])
+    return lcm(s.period, _constituent_denominator(arg, s, var, ev, divisor))
+
+
+def _residue_period(arg, s: Shape, m: int, var, ev, what) -> int:
+    """The period of arg mod m, for integer values of arg: that of {arg/m}."""
+    return _fraction_period(arg, s, var, ev, what, m)
 
 
 def _periodic_of_linear(node, var, ev, arg, what, integer=False) -> Shape:
-    """A function of period 1 (frac, sawtooth, Bbar_p) applied to `arg`."""
+    """A function of period 1 (frac, sawtooth, Bbar_p) applied to `arg`: it depends on {arg} only."""
     s = shape(arg, var, ev)
     if s.degree == 0:
         return Shape(0, s.period, s.threshold)
-    _, period = _fractional_period(arg, var, ev, what)
-    return Shape(0, period)
+    return Shape(0, _fraction_period(arg, s, var, ev, what), s.threshold)
 
 
 def _floor_like(node, var, ev):
+    """floor(Q) = Q - {Q} and ceil(Q) = Q + {-Q}: Q's degree, and {Q}'s period as a new order."""
     (arg,) = node.args
     s = shape(arg, var, ev)
     if s.degree == 0:
         return Shape(0, s.period, s.threshold)
-    degree, period = _fractional_period(arg, var, ev, f"the argument of {node.name}")
-    return Shape(degree, period, None, frozenset({1, period}))
+    period = _fraction_period(arg, s, var, ev, f"the argument of {node.name}")
+    return Shape(s.degree, lcm(s.period, period), s.threshold, _sum_orders(s.orders, frozenset({1, period})))
 
 
 def _frac_like(node, var, ev):
@@ -341,9 +397,11 @@ def _residue_like(node, var, ev):
     if s.degree == 0:
         return Shape(0, s.period, s.threshold)
     p = polynomial(x, var, ev)
-    if p is None or any(c.denominator != 1 for c in p):
-        _refuse(x, f"the first argument of {node.name} must be a polynomial in {var} with integer coefficients")
-    return Shape(0, abs(m.numerator))
+    if p is not None and all(c.denominator == 1 for c in p):
+        return Shape(0, abs(m.numerator))
+    # an integer-valued quasi-polynomial x: x mod m = |m| {x/|m|}, and gcd(x, m) depends on it only
+    return Shape(0, _residue_period(x, s, abs(m.numerator), var, ev, f"the first argument of {node.name}"),
+                 s.threshold)
 
 
 def _modulus(node, arg, var, ev, what):
@@ -482,7 +540,7 @@ def _lattice_in(node, var, ev):
 
 
 _CALL_RULES = {
-    "floor": _floor_like, "ceil": _floor_like,
+    "floor": _floor_like, "ceil": _floor_like, "round": _floor_like,
     "frac": _frac_like, "sawtooth": _frac_like,
     "mod": _residue_like, "gcd": _residue_like,
     "dedekind": _dedekind, "generalized_dedekind": _generalized, "fourier_dedekind": _fourier,

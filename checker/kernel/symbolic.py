@@ -169,6 +169,14 @@ def atom_problem(facts, atom) -> str:
         if is_symbolic(p) or p.denominator != 1 or p < 1:
             return "the order p of generalized_dedekind must be a whole number >= 1"
         return _first(facts.integral(h), facts.integral(k), facts.at_least(k, 1))
+    if name == "fourier_dedekind":
+        n, parts, b = args
+        if not isinstance(parts, tuple):
+            return "the second argument of fourier_dedekind must be a list"
+        reasons = [facts.integral(n), facts.integral(b), facts.at_least(b, 1)]
+        for a in parts:
+            reasons += [facts.integral(a), facts.coprime(a, b)]
+        return _first(*reasons)
     if name in ("sawtooth",):
         return ""
     if name == "periodic_bernoulli":

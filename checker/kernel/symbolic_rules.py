@@ -132,6 +132,9 @@ def _reciprocity(facts, limits, atom, target):
                 * h ** j * k ** (p + 1 - j)
         other = scale(_call(name, Fraction(p), k, h), -(p + 1) * k * h ** p / lead)
         return [add(_c(total / lead), other)]
+    if name in ("fourier_dedekind", "dedekind_rademacher"):
+        _refuse(f"reciprocity for {name} has no form for calls with parameters (its side conditions, "
+                "pairwise coprimality and the range of n, are not derived); give the arguments numbers")
     _refuse(f"it does not apply to {name}")
 
 
@@ -228,6 +231,39 @@ def _three_term_problem(facts, x, a, y, b, z, c) -> str:
     return ""
 
 
+# -- the bridge from Fourier-Dedekind sums to Dedekind sums ---------------------------
+
+def _bridge(facts, limits, atom, target):
+    """s_0(a, c; b) = -s(x, b) + (b - 1)/(4b) for x c = a or x a = c (mod b), both derived."""
+    _only(atom, "fourier_dedekind")
+    n, parts, b = atom[1]
+    if not isinstance(parts, tuple) or len(parts) != 2:
+        _refuse("the bridge needs a list of two entries [a, c]")
+    a, c = parts
+    for why in (facts.at_least(b, 1), facts.divides(b, n)):
+        _require(why and f"the bridge needs b >= 1 and n = 0 (mod b): {why}")
+    for x in (a, c):
+        why = facts.coprime(x, b)
+        _require(why and f"the bridge needs a and c coprime to b: {why}")
+    choices, reasons = [], []
+    for x, y in _dedekind_targets(target, b):
+        why = facts.divides(b, x * c - a)
+        if why and facts.divides(b, x * a - c) is None:
+            why = None
+        if why:
+            reasons.append(f"the bridge needs s(a c', b) with c c' = 1 (mod b): {why}")
+        else:
+            choices.append(x)
+    for unit, other in ((c, a), (a, c)):      # c = +-1: c' = c, so a c' = a c needs no inverse
+        if not isinstance(unit, RationalFunction) and unit in (1, -1):
+            choices.append(other * unit)
+    if not choices:
+        _refuse(reasons[0] if reasons else
+                "the bridge needs dedekind(a c', b) in the next line, with c c' = 1 (mod b)")
+    term = (b - 1) / (4 * b)
+    return [add(_c(term), scale(_call("dedekind", x, b), Fraction(-1))) for x in choices]
+
+
 # -- definition ----------------------------------------------------------------------
 
 def _by_definition(facts, limits, atom, target):
@@ -253,4 +289,5 @@ _RULES = {
     "common_factor": _common_factor,
     "three_term": _three_term,
     "definition": _by_definition,
+    "bridge": _bridge,
 }

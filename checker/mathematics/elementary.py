@@ -21,7 +21,7 @@ from fractions import Fraction
 
 from ..foundation.errors import DomainError
 
-__all__ = ["sawtooth", "floor", "ceil", "frac", "mod", "gcd", "lcm", "binomial",
+__all__ = ["sawtooth", "floor", "ceil", "frac", "round_half_up", "mod", "gcd", "lcm", "binomial",
            "as_integer", "as_rational", "as_positive"]
 
 HALF = Fraction(1, 2)
@@ -80,6 +80,19 @@ def ceil(x) -> Fraction:
     """The smallest integer >= x."""
     x = as_rational(x)
     return Fraction(-((-x.numerator) // x.denominator))
+
+
+def round_half_up(x) -> Fraction:
+    """The integer nearest to x, halves rounded up: floor(x + 1/2).
+
+    One convention for every x (so round(-5/2) = -2, unlike rounding halves to
+    even or away from zero); published closed forms of p_A(n) use this form.
+
+    >>> round_half_up(Fraction(5, 2)), round_half_up(Fraction(-5, 2)), round_half_up(Fraction(7, 3))
+    (Fraction(3, 1), Fraction(-2, 1), Fraction(2, 1))
+    """
+    x = as_rational(x) + HALF
+    return Fraction(x.numerator // x.denominator)
 
 
 def frac(x) -> Fraction:

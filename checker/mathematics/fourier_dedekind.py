@@ -4,9 +4,10 @@ For an integer b >= 1, integers a_1..a_m each coprime to b, and any integer n:
 
     s_n(a_1, ..., a_m; b) = (1/b) sum_{j=1}^{b-1} xi^(j n) / prod_i (1 - xi^(j a_i)),
 
-xi = exp(2 pi i / b) (Gessel, Electron. J. Combin. 4(2) (1997), R10, who
-writes restricted partition counts with such sums; the sums of Zagier, Math.
-Ann. 202 (1973), are of the same kind).  The sum is rational.
+xi = exp(2 pi i / b) (sums of this kind over the b-th roots of unity: Gessel,
+Electron. J. Combin. 4(2) (1997) #R11, who writes restricted partition counts
+with them; the sums of Zagier, Math. Ann. 202 (1973), are of the same kind).
+The sum is rational.
 
 How it is computed.  For a b-th root of unity w != 1,
 1/(1 - w) = sum_{r=0}^{b-1} c(r) w^r with c(r) = (b - 1 - 2r)/(2b), because

@@ -7,7 +7,8 @@ For positive integers A = [a_1, ..., a_d] (repeats allowed),
 the coefficient of x^n in 1/prod_i (1 - x^(a_i)); p_A(n) = 0 for n < 0.  It
 agrees for n > -(a_1 + ... + a_d) with a quasi-polynomial P_A of degree d - 1
 and period lcm(A) (Bell, Amer. J. Math. 65 (1943); Sylvester (1857) for the
-waves W_b; Stanley, Enumerative Combinatorics vol. 1, ch. 4), obtained from the partial fractions of the generating function:
+waves W_b; Gessel, Electron. J. Combin. 4(2) (1997) #R11; Stanley, Enumerative
+Combinatorics vol. 1, ch. 4), obtained from the partial fractions of the generating function:
 
     P_A(n) = sum over b dividing some a_i of W_b(n),
     W_b(n) = -sum_{xi primitive b-th root of 1} Res_{z=xi} z^(-n-1) / prod_i (1 - z^(a_i)).
@@ -113,8 +114,27 @@ def partitions_by_quasipolynomial(n, parts) -> Fraction:
 
 
 def polynomial_part(parts) -> list[Fraction]:
-    """Coefficients c_0, ..., c_{d-1} of the polynomial part W_1(n) = sum c_j n^j."""
-    return list(PartitionQuasiPolynomial.of(check_parts(parts, "polynomial_part")).polynomial)
+    """Coefficients c_0, ..., c_{d-1} of the polynomial part W_1(n) = sum c_j n^j.
+
+    Only the pole at z = 1 is expanded: d products of power series of length d,
+    on numbers of the size of the parts, so parts like 10^30 cost no more than
+    small ones (the number of parts d is what costs).
+    For A = [a, b] it is n/(ab) + 1/(2a) + 1/(2b) (Popoviciu, 1953):
+
+    >>> polynomial_part([3, 5])
+    [Fraction(4, 15), Fraction(1, 15)]
+    """
+    parts = tuple(sorted(check_parts(parts, "polynomial_part")))
+    hit = _POLYNOMIAL_PARTS.get(parts)
+    if hit is None:
+        if len(_POLYNOMIAL_PARTS) > 256:
+            _POLYNOMIAL_PARTS.clear()
+        hit = _POLYNOMIAL_PARTS[parts] = tuple(
+            PartitionQuasiPolynomial._wave_polynomial(_wave(parts, 1), 0))
+    return list(hit)
+
+
+_POLYNOMIAL_PARTS: dict = {}     # values only: the key is the sorted parts, so it cannot go stale
 
 
 def _divisors(m: int) -> list[int]:
@@ -249,39 +269,7 @@ class PartitionQuasiPolynomial:
         self.polynomial = self._wave_polynomial(b1, 0)
 
     def _wave(self, b: int):
-        parts = self.parts
-        inside = [a for a in parts if a % b == 0]
-        outside = [a for a in parts if a % b]
-        e = len(inside)
-        top = e - 1
-        bs = bernoulli_numbers(top)
-        # rational series prod_{b | a} beta(a t), beta(s) = s/(e^s - 1)
-        series = [Fraction(1)] + [Fraction(0)] * top
-        for a in inside:
-            factor = [bs[k] * Fraction(a ** k, factorial(k)) for k in range(top + 1)]
-            series = _series_mul_rational(series, factor, top)
-        cyc = [_Cyclic.constant(b, c) for c in series]
-        phis = _phi_polynomials(top + 1)
-        for a in outside:
-            bp = b // gcd(b, a)
-            nums = [0] * b
-            for r in range(bp):
-                nums[a * r % b] += bp - 1 - 2 * r
-            u = _Cyclic(b, nums, 2 * bp)._tidy()
-            powers = [u]
-            for _ in range(top):
-                powers.append(powers[-1] * u)
-            factor = []
-            for k in range(top + 1):
-                coeff = None
-                for j, c in enumerate(phis[k]):
-                    if c:
-                        term = powers[j - 1].scaled(Fraction(c * a ** k, factorial(k)))
-                        coeff = term if coeff is None else coeff + term
-                factor.append(coeff)
-            cyc = _series_mul_cyclic(cyc, factor, top)
-        scale = Fraction(-((-1) ** e), prod(inside))
-        return b, top, cyc, scale, _ramanujan_sums(b)
+        return _wave(self.parts, b)
 
     @staticmethod
     def _wave_polynomial(wave, residue: int) -> list[Fraction]:
@@ -310,6 +298,42 @@ class PartitionQuasiPolynomial:
             for j, c in enumerate(self._wave_polynomial(wave, residue % wave[0])):
                 out[j] += c
         return out
+
+
+def _wave(parts: tuple[int, ...], b: int):
+    """W_b as (b, degree, cyclic series, scale, Ramanujan sums): see the module docstring."""
+    inside = [a for a in parts if a % b == 0]
+    outside = [a for a in parts if a % b]
+    e = len(inside)
+    top = e - 1
+    bs = bernoulli_numbers(top)
+    # rational series prod_{b | a} beta(a t), beta(s) = s/(e^s - 1)
+    series = [Fraction(1)] + [Fraction(0)] * top
+    for a in inside:
+        factor = [bs[k] * Fraction(a ** k, factorial(k)) for k in range(top + 1)]
+        series = _series_mul_rational(series, factor, top)
+    cyc = [_Cyclic.constant(b, c) for c in series]
+    phis = _phi_polynomials(top + 1)
+    for a in outside:
+        bp = b // gcd(b, a)
+        nums = [0] * b
+        for r in range(bp):
+            nums[a * r % b] += bp - 1 - 2 * r
+        u = _Cyclic(b, nums, 2 * bp)._tidy()
+        powers = [u]
+        for _ in range(top):
+            powers.append(powers[-1] * u)
+        factor = []
+        for k in range(top + 1):
+            coeff = None
+            for j, c in enumerate(phis[k]):
+                if c:
+                    term = powers[j - 1].scaled(Fraction(c * a ** k, factorial(k)))
+                    coeff = term if coeff is None else coeff + term
+            factor.append(coeff)
+        cyc = _series_mul_cyclic(cyc, factor, top)
+    scale = Fraction(-((-1) ** e), prod(inside))
+    return b, top, cyc, scale, _ramanujan_sums(b)
 
 
 def _series_mul_rational(x, y, top):

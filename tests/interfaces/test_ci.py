@@ -245,7 +245,7 @@ UNSOUND_TABLES = sorted(p for p in UNSOUND.glob("*") if p.suffix in (".csv", ".j
 
 def test_every_unsound_table_is_listed_in_the_readme():
     readme = (UNSOUND / "README.md").read_text()
-    assert UNSOUND_TABLES and all(f"| {p.name} |" in readme for p in UNSOUND_TABLES)
+    assert UNSOUND_TABLES and all(f"| `{p.name}` |" in readme for p in UNSOUND_TABLES)
 
 
 @pytest.mark.parametrize("path", UNSOUND_TABLES, ids=lambda p: p.name)

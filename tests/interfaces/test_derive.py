@@ -87,6 +87,6 @@ def test_derive_refuses_what_it_cannot_write():
     err = io.StringIO()
     assert main(["derive", "bernoulli(4)"], out=io.StringIO(), err=err) == 2
     assert err.getvalue().startswith("the expression, column 1: error: derive writes certificates for dedekind(h, k), "
-                                     "partitions(n, A), lattice_points(t, P), lattice_points_in(t, P) and "
+                                     "fourier_dedekind(n, A, b), partitions(n, A), lattice_points(t, P), lattice_points_in(t, P) and "
                                      "frobenius(A); not for bernoulli")
     assert main(["derive", "dedekind(1, 0)"], out=io.StringIO(), err=err) == 2

@@ -127,3 +127,12 @@ def test_fragment_has_no_preamble():
     doc = certificate_latex("claim dedekind(5, 17) = 1/17\n", fragment=True)
     assert r"\documentclass" not in doc and r"\begin{document}" not in doc and r"\end{document}" not in doc
     assert r"\[ s(5, 17) = \frac{1}{17} \]" in doc
+
+
+def test_parentheses_of_a_subtracted_sum_are_kept():
+    # common practice: a - (b + c) must not print as a - b + c
+    from checker.interfaces.latex import expression_latex
+    from checker.language.parsing import parse_expression
+    assert expression_latex(parse_expression("1 - (2 + 3)")) == r"1 - \left(2 + 3\right)"
+    assert expression_latex(parse_expression("1 - (2 - 3) + (4 + 5)")) == \
+        r"1 - \left(2 - 3\right) + \left(4 + 5\right)"

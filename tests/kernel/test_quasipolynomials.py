@@ -204,13 +204,15 @@ def test_a_wrong_periodic_value_is_caught_at_its_first_residue(parts, data):
     ("identity for n >= 1: dedekind(1, n) = 0\n", "the second argument of dedekind must not depend on n in an "
      "identity, which needs a quasi-polynomial in n; a closed form for every n is proved with a lemma instead: "
      "lemma NAME(n) for n >= 1: A = B, then its chains and `end`"),
-    ("identity for n >= 0: 2^n = 1\n", "n stands in an exponent, so this is not a quasi-polynomial in n"),
+    ("identity for n >= 0: 2^n = 1\n",
+     "n stands in an exponent of a base other than 1 or -1, so this is not a quasi-polynomial in n"),
+    ("identity for n >= 0: n^n = 1\n", "n stands in an exponent, so this is not a quasi-polynomial in n"),
     ("identity for n >= 0: frobenius([n, 3]) = 0\n", "quasicert does not know frobenius to be a quasi-polynomial in n"),
     ("identity for all n: partitions(n, [1, 2]) = floor(n/2) + 1\n",
      "this side is a quasi-polynomial in n only from n = -2 on, so an identity for all n cannot be decided; "
      "state it for n >= some bound"),
-    ("identity for n >= 0: sawtooth(n^2/2 + sawtooth(n/3)) = 0\n",
-     "the argument of sawtooth must be a polynomial in n, or a periodic expression, for quasicert to know its period"),
+    ("identity for n >= 0: sawtooth(n^2/2 + 2^n) = 0\n",
+     "n stands in an exponent of a base other than 1 or -1, so this is not a quasi-polynomial in n"),
 ])
 def test_refusals_name_the_reason(text, message):
     report = check_text(text)

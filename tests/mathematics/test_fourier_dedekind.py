@@ -62,7 +62,7 @@ def test_against_mpmath_moderate_b(b):
 
 
 def test_two_parameter_case_is_a_dedekind_sum():
-    # such sums reduce to Dedekind sums (Gessel, Electron. J. Combin. 4(2) (1997)):
+    # the cotangent form of s(h, k) (Rademacher & Grosswald 1972, ch. 2) gives
     # s_0(a, 1; b) = -s(a, b) + (b - 1)/(4b)  [from memory; checked with mpmath below]
     for b in range(2, 60):
         for a in range(1, b):
@@ -95,9 +95,8 @@ def pairwise_coprime(parts):
 
 @given(st.lists(st.integers(1, 40), min_size=2, max_size=5).filter(pairwise_coprime))
 def test_reciprocity_for_fourier_dedekind_sums(parts):
-    # reciprocity for Fourier-Dedekind sums: for pairwise coprime A,
-    # sum_j s_0(A without a_j; a_j) = 1 - (polynomial part of p_A at 0); it is the partial-fraction
-    # decomposition of p_A (Gessel, Electron. J. Combin. 4(2) (1997)) at n = 0, where p_A(0) = 1
+    # reciprocity for Fourier-Dedekind sums (Gessel, Electron. J. Combin. 4(2) (1997) #R11): for pairwise coprime A,
+    # sum_j s_0(A without a_j; a_j) = 1 - (polynomial part of p_A at 0)
     total = sum(fourier_dedekind(0, parts[:j] + parts[j + 1:], parts[j]) for j in range(len(parts)))
     assert total == 1 - polynomial_part(parts)[0]
 

@@ -81,7 +81,7 @@ def test_large_n_against_exact_closed_form_two_parts():
 
 
 def test_decomposition_into_fourier_dedekind_sums():
-    # partial fractions of 1/prod(1 - x^a) (Gessel, Electron. J. Combin. 4(2) (1997); Sylvester
+    # partial fractions of 1/prod(1 - x^a) (Gessel, Electron. J. Combin. 4(2) (1997) #R11; Sylvester
     # (1857) for the waves): for pairwise coprime A,
     # p_A(n) = polynomial part + sum_j s_{-n}(A without a_j; a_j)
     parts = [4, 9, 11, 13]

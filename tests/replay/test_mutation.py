@@ -137,7 +137,12 @@ def _bundled():
 def _derived():
     from checker.interfaces.derive import derive_dedekind
     pairs = [(5, 17), (-44, 102), (123456789, 987654321), (10**30 + 3, 10**31 + 7), (89, 144)]
-    return [(f"derived s({h}, {k})", derive_dedekind(h, k)) for h, k in pairs]
+    out = [(f"derived s({h}, {k})", derive_dedekind(h, k)) for h, k in pairs]
+    from checker.interfaces.derive import derive_fourier_dedekind
+    # moduli the slow references can sum over (a survivor is re-checked with them)
+    for n, parts, b in ((0, [5, 7], 101), (5, [3, 7, 11], 10**30 + 57), (0, [1001, 3], 1000)):
+        out.append((f"derived s_{n}({parts}; {b})", derive_fourier_dedekind(n, parts, b)))
+    return out
 
 
 def test_mutants_of_bundled_certificates_are_rejected_at_their_step():

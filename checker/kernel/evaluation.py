@@ -35,6 +35,8 @@ class Evaluator:
         self.memo: dict = {}
         self.paranoid = paranoid
         self.second_opinions = 0       # values computed twice, in paranoid mode
+        self.chain_wanted = False      # set while a chain is replayed: s along Euclid at once
+        self._along_euclid: dict = {}  # (h, k) -> 12 k s(h, k), integers, reduced only when asked
 
     # -- public -------------------------------------------------------------
     def value(self, node: ex.Expr):
@@ -67,10 +69,11 @@ class Evaluator:
             if value is not None:
                 self._remember(key, value)
                 return value
-        if name == "dedekind" and not self.paranoid and self._fill_euclid(args):
-            hit = self.memo.get(key)
-            if hit is not None:
-                return hit
+        if name == "dedekind" and not self.paranoid:
+            value = self._from_euclid_pass(args)
+            if value is not None:
+                self._remember(key, value)
+                return value
         result = spec.call(args, self.limits)
         self._check_size(result)
         if self.paranoid:
@@ -219,18 +222,27 @@ class Evaluator:
             tables[parts] = table
         return Fraction(table[n])
 
-    def _fill_euclid(self, args) -> bool:
-        """For big arguments, compute s at every pair of the Euclid chain at once."""
+    def _from_euclid_pass(self, args):
+        """s(h, k) from one integer pass along Euclid's chain, made when a chain wants many values.
+
+        One value alone is the kernel's O(log k) algorithm; a chain of reciprocity
+        steps asks for s at every pair of the Euclid chain, which one pass gives
+        as integers 12 k s(h, k); only the values asked for become Fractions."""
         if len(args) != 2 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
-            return False
+            return None
         h, k = args[0].numerator, args[1].numerator
         if k < 1 or k.bit_length() < _EUCLID_MEMO_BITS:
-            return False
-        values = dedekind_along_euclid(h, k)
-        for (a, b), v in values.items():
-            self._remember(("dedekind", (Fraction(a), Fraction(b))), v)
-        self._remember(("dedekind", args), values[_reduced(h, k)])
-        return True
+            return None
+        pair = _reduced(h, k)
+        t = self._along_euclid.get(pair)
+        if t is None:
+            if not self.chain_wanted:
+                return None
+            if len(self._along_euclid) > _MEMO_SIZE:
+                self._along_euclid.clear()
+            self._along_euclid.update(dedekind_along_euclid(*pair))
+            t = self._along_euclid[pair]
+        return Fraction(t, 12 * pair[1])
 
 
 _MISSING = object()

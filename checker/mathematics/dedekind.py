@@ -166,21 +166,28 @@ def dedekind_by_definition(h, k) -> Fraction:
     return Fraction(total, 4 * k * k)
 
 
-def dedekind_along_euclid(h: int, k: int) -> dict[tuple[int, int], Fraction]:
-    """s at every pair met by reduce/reciprocity from (h, k), keyed by (h mod k, k).
+def dedekind_along_euclid(h: int, k: int) -> dict[tuple[int, int], tuple[int, int]]:
+    """12 k s(h, k) at every pair met by reduce/reciprocity from (h, k), keyed by (h mod k, k).
 
-    One pass down Euclid's algorithm and one back up with the reciprocity law:
-    the values that a chain of reciprocity steps needs, all for the price of one.
+    Values are the integers t = 12 k s(h, k) (an integer by the formula above),
+    so that nothing is reduced that nobody asked for: s = t / (12 k).  One pass
+    down Euclid's algorithm and one back up with reciprocity in integer form,
+
+        h t(h, k) + k t(k mod h, h) = h^2 + k^2 + 1 - 3 h k,
+
+    each division exact (an inexact one would be a bug, and raises).
     """
     h, k = _reduced_pair(h, k)
     pairs = []
     while k > 1:
         pairs.append((h, k))
         h, k = k % h, h
-    values = {(0, 1): Fraction(0)}
-    below = Fraction(0)
+    values = {(0, 1): 0}
+    below = 0                       # t at the pair below, 12 h s(k mod h, h)
     for h, k in reversed(pairs):
-        below = reciprocity_term(h, k) - below
+        below, rest = divmod(h * h + k * k + 1 - 3 * h * k - k * below, h)
+        if rest:
+            raise ArithmeticError(f"12 k s(h, k) is not an integer at ({h}, {k})")
         values[(h, k)] = below
     return values
 

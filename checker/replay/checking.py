@@ -357,6 +357,13 @@ class _Replay:
     def _Chain(self, stmt):
         if not self._claim_label(stmt.label, stmt):
             return
+        self.evaluator.chain_wanted = True      # its steps walk Euclid's chain: one pass gives all values
+        try:
+            self._chain_steps(stmt)
+        finally:
+            self.evaluator.chain_wanted = False
+
+    def _chain_steps(self, stmt):
         prev_nf = self.normaliser.normal(stmt.start)
         prev_value = nf_value(prev_nf, self._call, self.limits)
         start_nf, all_ok = prev_nf, True

@@ -6,6 +6,7 @@ a Report.  The judgements themselves are ``kernel``'s; the words are here.
 """
 from __future__ import annotations
 
+import dataclasses
 import difflib
 import time
 from fractions import Fraction
@@ -20,7 +21,7 @@ from ..foundation.limits import DEFAULT_LIMITS, Limits
 from ..kernel.normal import Normaliser, text as nf_text
 from ..foundation.numbers import value_text
 from ..language.parsing import parse_certificate
-from .library import read_certificate_text, use_lemmas
+from .library import checked_before, read_certificate_text, remember_checked, use_lemmas
 from .report import Failure, Report
 from .step_details import cited_rules, rule_details, short
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
@@ -64,6 +65,11 @@ class _Facts:
 def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
                keep_going: bool = False, paranoid: bool = False) -> Report:
     """Check a certificate given as text; never raises for anything the text contains."""
+    return _check(text, name, limits, keep_going, paranoid)[0]
+
+
+def _check(text, name, limits, keep_going, paranoid):
+    """(the Report, the replay that made it, or None when the text did not parse)."""
     start = time.perf_counter()
     report = Report(name=name, text=text)
     try:
@@ -71,10 +77,11 @@ def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
     except CertificateError as e:
         report.failures.append(_from_error(e, exit_code=2))
         report.seconds = time.perf_counter() - start
-        return report
-    _Replay(cert, report, limits, keep_going, paranoid).run()
+        return report, None
+    replay = _Replay(cert, report, limits, keep_going, paranoid)
+    replay.run()
     report.seconds = time.perf_counter() - start
-    return report
+    return report, replay
 
 
 def check_certificate(cert: st.Certificate, limits: Limits = DEFAULT_LIMITS,
@@ -96,7 +103,16 @@ def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False,
         report = Report(name=str(path))
         report.failures.append(_from_error(e, exit_code=2))
         return report
-    return check_text(text, str(path), limits, keep_going, paranoid)
+    # a file checked once in a process is not checked again: neither when a later
+    # certificate uses it nor when it comes again after a `use` already checked it
+    earlier = checked_before(path, text, limits) if not (keep_going or paranoid) else None
+    if earlier is not None:
+        return dataclasses.replace(earlier, name=str(path), failures=list(earlier.failures),
+                                   notes=list(earlier.notes), seconds=0.0)
+    report, replay = _check(text, str(path), limits, keep_going, paranoid)
+    if replay is not None and not replay.using:
+        remember_checked(path, text, limits, report, replay)
+    return report
 
 
 def _from_error(e: CertificateError, exit_code: int | None = None, source_note=None) -> Failure:

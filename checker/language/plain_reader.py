@@ -101,6 +101,12 @@ class GiveUp(Exception):
 
 
 _END = "$END"
+_NO_ROLES = frozenset()
+
+
+def _may_span_lines(regex: str) -> bool:
+    """Lark's test of a terminal that may contain a newline, a little wider."""
+    return "\n" in regex or "\\n" in regex or "\\s" in regex or "[^" in regex or "." in regex
 
 
 class PlainReader:
@@ -128,59 +134,71 @@ class PlainReader:
         self.statement = {kw[r]: r for r in ("title", "source", "let", "claim", "chain")}
         self.kw = kw
         self._roles: dict = {}
+        # terminals whose lexemes are never anything else (long numbers and names, mostly)
+        self.plain_roles = {k: frozenset((k,)) for k in ("NAME", "INT", "STRING") if k in self.small}
+        self.multiline = frozenset(name for name, regex, _ in terminals if _may_span_lines(regex))
 
     # -- tokens ----------------------------------------------------------------
     def _start(self, text: str, limits):
         self.text = text
         self.limits = limits
         self.pos = 0
+        self.size = len(text)
+        self.tokens = limits.tokens
         self.line = 1
         self.line_start = 0
         self.count = 0
         self._next()
 
     def _next(self):
-        """Move to the next significant token: kind, lexeme, line, column."""
-        text, match, ignore = self.text, self.master.match, self.ignore
+        """Move to the next significant token: kind, lexeme, roles, line, column."""
+        text, match, ignore, kinds = self.text, self.master.match, self.ignore, self.group_kind
         while True:
             pos = self.pos
-            if pos >= len(text):
-                self.kind, self.lex, self.tline, self.tcol = _END, "", self.line, pos - self.line_start + 1
+            if pos >= self.size:
+                self.kind, self.lex, self.roles = _END, "", _NO_ROLES
+                self.tline, self.tcol = self.line, pos - self.line_start + 1
                 return
             m = match(text, pos)
             if m is None:
                 raise GiveUp()
             lex = m.group()
-            kind = self.group_kind[m.lastgroup]
+            kind = kinds[m.lastgroup]
             self.count += 1
-            if self.count > self.limits.tokens:
+            if self.count > self.tokens:
                 raise GiveUp()
             self.pos = m.end()
-            if kind in ignore or "\n" in lex:
+            if kind in ignore:
                 if "\n" in lex:
-                    if kind not in ignore:
-                        raise GiveUp()         # a significant token over two lines: Lark's business
                     self.line += lex.count("\n")
                     self.line_start = pos + lex.rindex("\n") + 1
                 continue
+            if kind in self.multiline and "\n" in lex:
+                raise GiveUp()                 # a token over two lines: Lark's business
             self.kind, self.lex, self.tline, self.tcol = kind, lex, self.line, pos - self.line_start + 1
+            roles = self.plain_roles.get(kind)
+            if roles is None or lex in self.embedded:
+                roles = self._roles_of(kind, lex)
+            self.roles = roles
             return
+
+    def _roles_of(self, kind, lex) -> frozenset:
+        """Every terminal the lexeme can be: Lark's contextual lexer picks among them by state."""
+        key = (kind, lex)
+        roles = self._roles.get(key)
+        if roles is None:
+            found = {n for n, rx in self.small.items() if rx.fullmatch(lex)}
+            found.add(kind)
+            if lex in self.embedded:
+                found.add(self.embedded[lex])
+            roles = frozenset(found)
+            if len(self._roles) < 10_000:
+                self._roles[key] = roles
+        return roles
 
     def _is(self, role: str) -> bool:
         """Can the current token be read as the terminal `role`?"""
-        kind = self.kind
-        if kind == role:
-            return True
-        if kind == "NAME" or kind == "INT" or kind == _END:
-            return self.embedded.get(self.lex) == role
-        key = (kind, self.lex)
-        roles = self._roles.get(key)
-        if roles is None:
-            roles = {n for n, rx in self.small.items() if rx.fullmatch(self.lex)}
-            if self.lex in self.embedded:
-                roles.add(self.embedded[self.lex])
-            self._roles[key] = roles
-        return role in roles
+        return role in self.roles
 
     def _literal(self, literal: str) -> bool:
         return self._is(self.by_literal[literal]) if literal in self.by_literal else False

@@ -163,6 +163,17 @@ def _cost_frobenius(parts):
         parts = check_parts(parts, "frobenius")
     except CertificateError:
         return None
+    if len(set(parts)) <= 3:
+        # Sylvester, or Johnson's reduction and Rodseth's expansion: O(log) steps on these sizes
+        return ("integer_bits", 4 * max(parts).bit_length(), "Rodseth's formula for three generators")
+    return _cost_residue_table(parts)
+
+
+def _cost_residue_table(parts):
+    try:
+        parts = check_parts(parts, "nonrepresentable")
+    except CertificateError:
+        return None
     return ("terms", min(parts) * len(parts), f"the residue table modulo {min(parts)}")
 
 
@@ -234,7 +245,7 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("frobenius", "[a1, ..., ad]", "the largest integer not a non-negative combination of A",
           frobenius, (1, 1), False, _cost_frobenius),
     _spec("nonrepresentable", "[a1, ..., ad]", "how many positive integers are not combinations of A",
-          nonrepresentable, (1, 1), False, _cost_frobenius),
+          nonrepresentable, (1, 1), False, _cost_residue_table),
     _spec("periodic", "n, [c0, ..., c(L-1)]", "c_(n mod L)", periodic, (2, 2), True),
     _spec("constituents", "n, [[c00, c01, ...], ...]",
           "sum_j c_(r,j) n^j for r = n mod L: a quasi-polynomial by its constituents",

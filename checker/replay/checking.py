@@ -330,7 +330,7 @@ class _Replay:
         if problem:
             self._fail(Failure(pos.line, pos.column, problem, claimed=Fraction(g)))
             return
-        # the witness proves it; the kernel's residue table must agree (second judgement)
+        # the witness proves it; the kernel's own value must agree (second judgement)
         exact = kernel_frobenius(parts)
         if exact != g:
             self._fail(Failure(pos.line, pos.column, f"the witness holds but the kernel computes "

@@ -16,6 +16,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 from fractions import Fraction
+from math import gcd as _gcd
 from typing import Callable, Optional
 
 from ..mathematics.bernoulli import bernoulli, bernoulli_polynomial, periodic_bernoulli
@@ -122,6 +123,9 @@ def _cost_generalized(p, h, k):
     p, k = _int_or_zero(p), _int_or_zero(k)
     if p > 4000:
         return ("bernoulli_index", p, f"a generalized Dedekind sum of order {p}")
+    if p % 2 == 1 and k >= 1 and _gcd(_int_or_zero(h), k) == 1:
+        # Apostol's reciprocity along Euclid's chain: O(log k) steps of O(p) products
+        return ("terms", p * p * max(1, k.bit_length()), f"Apostol's reciprocity at order {p}")
     return ("terms", k * max(p, 1), f"summing {k} terms of order {p}")
 
 

@@ -44,7 +44,7 @@ from ..foundation.errors import DomainError
 __all__ = [
     "dedekind", "dedekind_by_definition", "dedekind_along_euclid",
     "reciprocity_term", "dedekind_rademacher", "generalized_dedekind",
-    "generalized_dedekind_by_definition",
+    "generalized_dedekind_by_definition", "generalized_dedekind_by_reciprocity",
 ]
 
 _LEADING_BITS = 400          # bits of the leading parts simulated per batch
@@ -258,6 +258,60 @@ def generalized_dedekind(p, h, k) -> Fraction:
     """Apostol's generalized Dedekind sum s_p(h, k) = sum_{j mod k} (j/k) Bbar_p(hj/k).
 
     Apostol, "Generalized Dedekind sums and transformation formulae of
-    certain Lambert series", Duke Math. J. 17 (1950); s_1 = s.  Exact, O(k p).
+    certain Lambert series", Duke Math. J. 17 (1950); s_1 = s.  For odd p and
+    coprime h, k his reciprocity law gives the value along Euclid's algorithm
+    in O(p log k) steps; otherwise (and for small k, where the sum is cheap and
+    independent of the law the `reciprocity` rule uses) the sum itself, O(k p).
     """
+    p = as_integer(p, "the order of a generalized Dedekind sum")
+    h = as_integer(h, "the second argument of generalized_dedekind")
+    k = as_positive(k, "the third argument of generalized_dedekind")
+    if p >= 1 and p % 2 == 1 and k > _SUM_BELOW and gcd(h, k) == 1:
+        return generalized_dedekind_by_reciprocity(p, h, k)
     return generalized_dedekind_by_definition(p, h, k)
+
+
+_SUM_BELOW = 64          # up to this k the O(k p) sum is as fast
+
+
+def generalized_dedekind_by_reciprocity(p: int, h: int, k: int) -> Fraction:
+    """s_p(h, k) for odd p >= 1 and coprime h, k >= 1 by Apostol's reciprocity law (1950):
+
+        (p + 1) (h k^p s_p(h, k) + k h^p s_p(k, h))
+            = sum_{j=0}^{p+1} C(p+1, j) (-1)^j B_j B_{p+1-j} h^j k^{p+1-j} + p B_{p+1},
+
+    with s_p(h, k) depending on h mod k only, down Euclid's chain to s_p(0, 1) = 0.
+    """
+    if p < 1 or p % 2 == 0 or k < 1 or gcd(h, k) != 1:
+        raise DomainError("Apostol's reciprocity needs an odd order and coprime arguments")
+    b = bernoulli_numbers(p + 1)
+    coefficients = [comb(p + 1, j) * (-1) ** j * b[j] * b[p + 1 - j] for j in range(p + 2)]
+    denominator = 1
+    for c in coefficients:
+        denominator = denominator * c.denominator // gcd(denominator, c.denominator)
+    ints = [int(c * denominator) for c in coefficients]          # exact: c * lcm is whole
+    constant = p * b[p + 1] * denominator
+    pairs = []
+    h %= k
+    while k > 1:
+        pairs.append((h, k))
+        h, k = k % h, h
+    value = Fraction(0)                                           # s_p(0, 1)
+    for h, k in reversed(pairs):
+        right = _homogeneous(ints, h, k)                          # sum_j C_j h^j k^(p+1-j)
+        law = (Fraction(right) + constant) / (denominator * (p + 1))
+        value = (law - k * h ** p * value) / (h * k ** p)
+    return value
+
+
+def _homogeneous(ints: list, h: int, k: int) -> int:
+    """sum_j ints[j] h^j k^(len-1-j)."""
+    n = len(ints) - 1
+    h_powers = [1]
+    for _ in range(n):
+        h_powers.append(h_powers[-1] * h)
+    total, k_power = 0, 1
+    for j in range(n, -1, -1):
+        total += ints[j] * h_powers[j] * k_power
+        k_power *= k
+    return total

@@ -57,10 +57,19 @@ def reciprocity_term(h: int, k: int) -> Fraction:
     return Fraction(h * h + k * k + 1 - 3 * h * k, 12 * h * k)
 
 
-try:                                   # optional: GMP's modular inverse is much faster
-    from gmpy2 import invert as _gmp_invert
-except ImportError:                    # pragma: no cover - depends on the machine
-    _gmp_invert = None
+_NOT_LOADED = object()
+_gmp_invert = _NOT_LOADED             # optional: GMP's modular inverse is much faster on long numbers
+
+
+def _load_gmp():
+    """gmpy2's inverse, imported on first need (its import costs a start-up ~0.1 s)."""
+    global _gmp_invert
+    if _gmp_invert is _NOT_LOADED:
+        try:
+            from gmpy2 import invert as _gmp_invert
+        except ImportError:            # pragma: no cover - depends on the machine
+            _gmp_invert = None
+    return _gmp_invert
 
 
 def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int]:
@@ -144,9 +153,12 @@ def dedekind(h, k) -> Fraction:
     h, k = _reduced_pair(h, k)
     if k == 1:
         return Fraction(0)
-    if _gmp_invert is not None and k.bit_length() > _GMP_BITS:
+    invert = _gmp_invert if k.bit_length() > _GMP_BITS else None
+    if invert is _NOT_LOADED:
+        invert = _load_gmp()
+    if invert is not None:
         alt, n, _ = _euclid(k, h, False)
-        inverse = int(_gmp_invert(h, k))
+        inverse = int(invert(h, k))
     else:
         alt, n, inverse = _euclid(k, h, True)
         inverse %= k

@@ -42,7 +42,7 @@ def coprime_pairs(rng, digits, count):
 def bench_dedekind():
     import checker.mathematics.dedekind as module
     print("dedekind(h, k) against python-flint fmpq.dedekind_sum (goal: 3x, 3x, 10x)")
-    saved = module._gmp_invert
+    saved = module._load_gmp()
     for mode in ("with gmpy2", "pure Python"):
         if mode == "with gmpy2" and saved is None:
             continue

@@ -228,7 +228,8 @@ class Evaluator:
         One value alone is the kernel's O(log k) algorithm; a chain of reciprocity
         steps asks for s at every pair of the Euclid chain, which one pass gives
         as integers 12 k s(h, k); only the values asked for become Fractions."""
-        if len(args) != 2 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
+        if not (self.chain_wanted or self._along_euclid) or len(args) != 2 \
+                or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
             return None
         h, k = args[0].numerator, args[1].numerator
         if k < 1 or k.bit_length() < _EUCLID_MEMO_BITS:
@@ -287,7 +288,9 @@ def _canonical(name, args):
     try:
         if name == "dedekind" and len(args) == 2 and args[1].denominator == 1 and args[1] >= 1 \
                 and args[0].denominator == 1:
-            return (args[0] % args[1], args[1])
+            # ints: equal to and hashed like the Fractions they stand for, and cheaper
+            k = args[1].numerator
+            return (args[0].numerator % k, k)
         if name == "fourier_dedekind" and len(args) == 3 and isinstance(args[1], tuple) \
                 and args[2].denominator == 1 and args[2] >= 1 and args[0].denominator == 1:
             b = args[2]

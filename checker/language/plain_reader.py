@@ -352,10 +352,10 @@ class PlainReader:
 
     def _sum(self, first=None):
         head = self._product(first)
-        if not self._is("ADDOP"):
+        if not "ADDOP" in self.roles:
             return head
         terms, depth = [(1, head[0])], head[1]
-        while self._is("ADDOP"):
+        while "ADDOP" in self.roles:
             sign = 1 if self.lex == "+" else -1
             self._next()
             term = self._product()
@@ -365,10 +365,10 @@ class PlainReader:
 
     def _product(self, first=None):
         head = self._unary(first)
-        if not self._is("MULOP"):
+        if not "MULOP" in self.roles:
             return head
         factors, depth = [(False, head[0])], head[1]
-        while self._is("MULOP"):
+        while "MULOP" in self.roles:
             divide = self.lex == "/"
             self._next()
             factor = self._unary()
@@ -378,16 +378,16 @@ class PlainReader:
 
     def _unary(self, first=None):
         if first is None:
-            if self._is("MINUS"):
+            if "MINUS" in self.roles:
                 where = self._pos()
                 self._next()
                 operand, depth = self._unary()
                 return self._made(ex.Neg(operand, _span(where, operand.pos)), depth + 1)
-            if self._is("PLUS"):
+            if "PLUS" in self.roles:
                 self._next()
                 return self._unary()
         base = self._atom() if first is None else first
-        if not self._is("CIRCUMFLEX"):
+        if not "CIRCUMFLEX" in self.roles:
             return base
         self._next()
         exponent = self._unary()
@@ -406,14 +406,14 @@ class PlainReader:
             name, pos = self.lex, self._pos()
             self._next()
             return self._name_or_call(name, pos)
-        if self._is("LPAR"):
+        if "LPAR" in self.roles:
             self._next()
             inner = self._expr()
-            if not self._is("RPAR"):
+            if not "RPAR" in self.roles:
                 raise GiveUp()
             self._next()
             return inner
-        if self._is("LSQB"):
+        if "LSQB" in self.roles:
             first = self._pos()
             self._next()
             items, depth = self._arguments("RSQB")
@@ -426,7 +426,7 @@ class PlainReader:
 
     def _name_or_call(self, name, pos):
         """The NAME just read: a call when "(" follows, else a name."""
-        if self._is("LPAR"):
+        if "LPAR" in self.roles:
             return self._call(name, pos)
         return ex.Name(name, pos), 0
 
@@ -448,7 +448,7 @@ class PlainReader:
             depth = max(depth, d)
             if self._is(closing):
                 return items, depth
-            if not self._is("COMMA"):
+            if not "COMMA" in self.roles:
                 raise GiveUp()
             self._next()
 

@@ -110,8 +110,23 @@ class Evaluator:
         return -self.number(node.operand)
 
     def _Sum(self, node):
-        total = Fraction(0)
-        for sign, term in node.terms:
+        # an int while every term is an integer (a Fraction sum costs gcds); the same
+        # running totals, so the same size checks, as the Fraction loop below
+        total, terms, limit = 0, node.terms, self.limits.integer_bits
+        for index, (sign, term) in enumerate(terms):
+            v = term.value if type(term) is ex.Num else self.number(term)
+            if type(v) is not int:
+                if v.denominator != 1:
+                    break
+                v = v.numerator
+            total = total + v if sign > 0 else total - v
+            if max(total.bit_length(), 1) > limit:
+                self._check_size(Fraction(total), term)
+        else:
+            return Fraction(total)
+        total = Fraction(total) + v if sign > 0 else Fraction(total) - v     # the first non-integer term
+        self._check_size(total, term)
+        for sign, term in terms[index + 1:]:
             v = self.number(term)
             total = total + v if sign > 0 else total - v
             self._check_size(total, term)

@@ -256,7 +256,10 @@ class Evaluator:
                 return None
             if len(self._along_euclid) > _MEMO_SIZE:
                 self._along_euclid.clear()
-            self._along_euclid.update(dedekind_along_euclid(*pair))
+            try:
+                self._along_euclid.update(dedekind_along_euclid(*pair))
+            except ArithmeticError as e:          # an inexact division: the recurrence is wrong
+                raise CheckerBug(f"{e}: this is a bug in quasicert, please report it") from None
             t = self._along_euclid[pair]
         return Fraction(t, 12 * pair[1])
 

@@ -8,7 +8,6 @@ what was expected in words, at a 1-based line and column.
 """
 from __future__ import annotations
 
-import copy
 import hashlib
 import json
 import os
@@ -415,7 +414,8 @@ def read_plain(text: str, start: str, limits: Limits = DEFAULT_LIMITS):
     shared = _plain_reader()
     if not shared.enabled:
         return None
-    reader = copy.copy(shared)           # its own position: parses may run in threads
+    reader = object.__new__(PlainReader)  # its own position (parses may run in threads), shared tables
+    reader.__dict__.update(shared.__dict__)
     try:
         return reader.expression(text, limits) if start == "expr" else reader.certificate(text, limits)
     except (GiveUp, RecursionError):

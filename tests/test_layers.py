@@ -17,7 +17,8 @@ LAYERS = ("foundation", "mathematics", "language", "kernel", "replay", "interfac
 # what a verdict depends on: the kernel and the functions it evaluates
 TRUSTED = ("kernel", "mathematics")
 # modules a layer may not import although they lie below it
-FORBIDDEN = {"kernel": {"checker.language.parsing"}, "mathematics": {"checker.language"}}
+FORBIDDEN = {"kernel": {"checker.language.parsing", "checker.language.plain_reader"},
+             "mathematics": {"checker.language"}}
 
 
 def _modules() -> dict:

@@ -39,6 +39,8 @@ class Evaluator:
         self.memo: dict = {}
         self.paranoid = paranoid
         self.second_opinions = 0       # values computed twice, in paranoid mode
+        self.chain_wanted = False      # set while a chain is replayed: s along Euclid at once
+        self._along_euclid: dict = {}  # (h, k) -> 12 k s(h, k), integers, reduced only when asked
 
     # -- public -------------------------------------------------------------
     def value(self, node: ex.Expr):
@@ -72,10 +74,11 @@ class Evaluator:
             if value is not None:
                 self._remember(key, value)
                 return value
-        if name == "dedekind" and not self.paranoid and self._fill_euclid(args):
-            hit = self.memo.get(key)
-            if hit is not None:
-                return hit
+        if name == "dedekind" and not self.paranoid:
+            value = self._from_euclid_pass(args)
+            if value is not None:
+                self._remember(key, value)
+                return value
         result = spec.call(args, self.limits)
         self._check_size(result)
         if self.paranoid:
@@ -112,8 +115,23 @@ class Evaluator:
         return -self.number(node.operand)
 
     def _Sum(self, node):
-        total = Fraction(0)
-        for sign, term in node.terms:
+        # an int while every term is an integer (a Fraction sum costs gcds); the same
+        # running totals, so the same size checks, as the Fraction loop below
+        total, terms, limit = 0, node.terms, self.limits.integer_bits
+        for index, (sign, term) in enumerate(terms):
+            v = term.value if type(term) is ex.Num else self.number(term)
+            if type(v) is not int:
+                if v.denominator != 1:
+                    break
+                v = v.numerator
+            total = total + v if sign > 0 else total - v
+            if max(total.bit_length(), 1) > limit:
+                self._check_size(Fraction(total), term)
+        else:
+            return Fraction(total)
+        total = Fraction(total) + v if sign > 0 else Fraction(total) - v     # the first non-integer term
+        self._check_size(total, term)
+        for sign, term in terms[index + 1:]:
             v = self.number(term)
             total = total + v if sign > 0 else total - v
             self._check_size(total, term)
@@ -227,18 +245,31 @@ class Evaluator:
             tables[parts] = table
         return Fraction(table[n])
 
-    def _fill_euclid(self, args) -> bool:
-        """For big arguments, compute s at every pair of the Euclid chain at once."""
-        if len(args) != 2 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
-            return False
+    def _from_euclid_pass(self, args):
+        """s(h, k) from one integer pass along Euclid's chain, made when a chain wants many values.
+
+        One value alone is the kernel's O(log k) algorithm; a chain of reciprocity
+        steps asks for s at every pair of the Euclid chain, which one pass gives
+        as integers 12 k s(h, k); only the values asked for become Fractions."""
+        if not (self.chain_wanted or self._along_euclid) or len(args) != 2 \
+                or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
+            return None
         h, k = args[0].numerator, args[1].numerator
         if k < 1 or k.bit_length() < _EUCLID_MEMO_BITS:
-            return False
-        values = dedekind_along_euclid(h, k)
-        for (a, b), v in values.items():
-            self._remember(("dedekind", (Fraction(a), Fraction(b))), v)
-        self._remember(("dedekind", args), values[_reduced(h, k)])
-        return True
+            return None
+        pair = _reduced(h, k)
+        t = self._along_euclid.get(pair)
+        if t is None:
+            if not self.chain_wanted:
+                return None
+            if len(self._along_euclid) > _MEMO_SIZE:
+                self._along_euclid.clear()
+            try:
+                self._along_euclid.update(dedekind_along_euclid(*pair))
+            except ArithmeticError as e:          # an inexact division: the recurrence is wrong
+                raise CheckerBug(f"{e}: this is a bug in quasicert, please report it") from None
+            t = self._along_euclid[pair]
+        return Fraction(t, 12 * pair[1])
 
 
 _MISSING = object()
@@ -283,7 +314,9 @@ def _canonical(name, args):
     try:
         if name == "dedekind" and len(args) == 2 and args[1].denominator == 1 and args[1] >= 1 \
                 and args[0].denominator == 1:
-            return (args[0] % args[1], args[1])
+            # ints: equal to and hashed like the Fractions they stand for, and cheaper
+            k = args[1].numerator
+            return (args[0].numerator % k, k)
         if name == "fourier_dedekind" and len(args) == 3 and isinstance(args[1], tuple) \
                 and args[2].denominator == 1 and args[2] >= 1 and args[0].denominator == 1:
             b = args[2]

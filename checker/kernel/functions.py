@@ -190,6 +190,9 @@ def _cost_generalized(p, h, k):
     p, k = _int_or_zero(p), _int_or_zero(k)
     if p > 4000:
         return ("bernoulli_index", p, f"a generalized Dedekind sum of order {p}")
+    if p % 2 == 1 and k >= 1 and math_gcd(_int_or_zero(h), k) == 1:
+        # Apostol's reciprocity along Euclid's chain: O(log k) steps of O(p) products
+        return ("terms", p * p * max(1, k.bit_length()), f"Apostol's reciprocity at order {p}")
     return ("terms", k * max(p, 1), f"summing {k} terms of order {p}")
 
 
@@ -244,6 +247,17 @@ def _cost_extended(n, parts):
 def _cost_frobenius(parts):
     try:
         parts = check_parts(parts, "frobenius")
+    except CertificateError:
+        return None
+    if len(set(parts)) <= 3:
+        # Sylvester, or Johnson's reduction and Rodseth's expansion: O(log) steps on these sizes
+        return ("integer_bits", 4 * max(parts).bit_length(), "Rodseth's formula for three generators")
+    return _cost_residue_table(parts)
+
+
+def _cost_residue_table(parts):
+    try:
+        parts = check_parts(parts, "nonrepresentable")
     except CertificateError:
         return None
     return ("terms", min(parts) * len(parts), f"the residue table modulo {min(parts)}")
@@ -324,7 +338,7 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("frobenius", "[a1, ..., ad]", "the largest integer not a non-negative combination of A",
           frobenius, (1, 1), False, _cost_frobenius),
     _spec("nonrepresentable", "[a1, ..., ad]", "how many positive integers are not combinations of A",
-          nonrepresentable, (1, 1), False, _cost_frobenius),
+          nonrepresentable, (1, 1), False, _cost_residue_table),
     _spec("periodic", "n, [c0, ..., c(L-1)]", "c_(n mod L)", periodic, (2, 2), True),
     _spec("constituents", "n, [[c00, c01, ...], ...]",
           "sum_j c_(r,j) n^j for r = n mod L: a quasi-polynomial by its constituents",

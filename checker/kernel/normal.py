@@ -47,18 +47,27 @@ def atom_nf(atom) -> NF:
 
 def add(x: NF, y: NF) -> NF:
     out = dict(x)
+    _add_into(out, y)
+    return out
+
+
+def _add_into(out: NF, y: NF) -> None:
     for m, c in y.items():
-        v = out.get(m, 0) + c
+        v = out.get(m)
+        v = c if v is None else v + c        # no 0 + c: each Fraction sum costs gcds of long numbers
         if v:
             out[m] = v
         else:
             out.pop(m, None)
-    return out
 
 
 def scale(x: NF, c: Fraction) -> NF:
     if not c:
         return {}
+    if c == 1:
+        return dict(x)
+    if c == -1:
+        return {m: -v for m, v in x.items()}
     return {m: v * c for m, v in x.items()}
 
 
@@ -90,7 +99,9 @@ def mul(x: NF, y: NF, limit: int | None = None) -> NF:
         check_time()
         for m2, c2 in y.items():
             m = _mono_mul(m1, m2)
-            v = out.get(m, 0) + c1 * c2
+            c = c1 if c2 == 1 else c2 if c1 == 1 else c1 * c2
+            v = out.get(m)
+            v = c if v is None else v + c
             if v:
                 out[m] = v
             else:
@@ -112,6 +123,8 @@ def power(x: NF, e: int, limit: int | None = None) -> NF | None:
         if inv is None:
             return None
         x, e = inv, -e
+    if e == 1:
+        return dict(x)
     result = constant(Fraction(1))
     base = x
     while e:
@@ -144,7 +157,7 @@ def substitute(x: NF, atom, replacement: NF, limit: int | None = None) -> NF | N
             if p is None:
                 return None
             rest = mul(rest, p, limit)
-        out = add(out, rest)
+        _add_into(out, rest)
     return out
 
 

@@ -57,7 +57,7 @@ def nf_value(x: NF, call, limits=None) -> Fraction:
     total = Fraction(0)
     for m, c in x.items():
         term = c
-        for (name, args), e in m:
+        for (name, args), e in m:   # (1 * v and v ** 1 are skipped below: each costs gcds of long numbers)
             v = call(name, args)
             if isinstance(v, tuple):
                 raise CertificateError(f"{name} gives a list where a number is needed")
@@ -67,9 +67,10 @@ def nf_value(x: NF, call, limits=None) -> Fraction:
                 size = max(v.numerator.bit_length(), v.denominator.bit_length())
                 limits.require("integer_bits", (size - 1) * abs(e) + 1,
                                f"the power {abs(e)} of {atom_text((name, args))}")
-            term *= v ** e
-        total += term
-    return total
+            factor = v if e == 1 else v ** e
+            term = factor if term == 1 else -factor if term == -1 else term * factor
+        total = term if not total else total + term
+    return total if type(total) is Fraction else Fraction(total)
 
 
 def known_rule(name: str) -> bool:

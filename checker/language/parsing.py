@@ -8,45 +8,161 @@ what was expected in words, at a 1-based line and column.
 """
 from __future__ import annotations
 
+import hashlib
+import json
+import os
 import re
 from functools import lru_cache
 from pathlib import Path
 
-from lark import Lark, Token, Transformer
-from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
-
 from . import expressions as ex
 from . import statements as st
+from .plain_reader import RELATIONS, GiveUp, PlainReader
 from ..foundation.resources import resource_dir
 from ..foundation.errors import BudgetExceeded, CertificateError, SyntaxProblem
 from ..foundation.limits import DEFAULT_LIMITS, Limits
 from ..foundation.numbers import text_int
 
-__all__ = ["parse_expression", "parse_certificate", "grammar_text"]
+__all__ = ["parse_expression", "parse_certificate", "grammar_text", "grammar_tables"]
+
+# Lark is imported only when a text needs it: most texts are read by the plain
+# reader, whose tables are kept on disk beside Lark's own cache of the grammar.
+_TABLES_VERSION = "1"
+_FAST_RULES = {"expr", "sum", "product", "unary", "power", "atom", "call", "list", "finite_sum",
+               "arguments", "title", "source", "let", "claim", "relation", "chain", "step", "rule",
+               "label", "__sum_star", "__product_star", "__arguments_star", "__chain_plus", "__step_star"}
+_FAST_STATEMENTS = ("title", "source", "let", "claim", "chain")
 
 
+@lru_cache(maxsize=1)
 def grammar_text() -> str:
     folder = resource_dir("checker.grammar", "grammar")
     return (folder / "expression.lark").read_text(encoding="utf-8") + "\n" + \
         (folder / "certificate.lark").read_text(encoding="utf-8")
 
 
+def _cache_dir() -> Path | None:
+    base = os.environ.get("QUASICERT_CACHE") or os.environ.get("XDG_CACHE_HOME") or \
+        os.path.join(os.path.expanduser("~"), ".cache")
+    folder = Path(base) / "quasicert"
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+    except OSError:
+        return None
+    return folder
+
+
+def _digest() -> str:
+    return hashlib.sha256((_TABLES_VERSION + grammar_text()).encode()).hexdigest()[:24]
+
+
 @lru_cache(maxsize=1)
-def _terminal_names() -> tuple:
-    return tuple(t.name for t in Lark(grammar_text(), parser="lalr", start=["expr", "certificate"]).terminals)
+def grammar_tables() -> dict:
+    """What the plain reader needs from the grammar: terminals, keywords and the rules' shape.
+
+    Derived from Lark's analysis of grammar/*.lark, and kept on disk under a digest
+    of the grammar text, so that a process that needs no Lark never analyses it."""
+    folder = _cache_dir()
+    path = folder / f"tables-{_digest()}.json" if folder else None
+    if path is not None:
+        try:
+            tables = json.loads(path.read_text(encoding="utf-8"))
+            if isinstance(tables, dict) and tables.get("digest") == _digest():
+                return tables
+        except (OSError, ValueError):
+            pass
+    tables = _tables_from_lark(_lark_grammar())
+    if path is not None:
+        try:
+            partial = path.with_suffix(f".{os.getpid()}.part")
+            partial.write_text(json.dumps(tables), encoding="utf-8")
+            os.replace(partial, path)
+        except OSError:
+            pass
+    return tables
+
+
+def _lark_grammar():
+    """Lark's analysis of the grammar, without callbacks (for the tables)."""
+    from lark import Lark
+    return Lark(grammar_text(), parser="lalr", start=["expr", "certificate"], maybe_placeholders=True,
+                **_lark_cache("plain"))
+
+
+def _lark_cache(what: str) -> dict:
+    folder = _cache_dir()
+    return {"cache": str(folder / f"lark-{what}-{_digest()}.pickle")} if folder else {}
+
+
+def _tables_from_lark(lark) -> dict:
+    terminals = sorted(lark.terminals, key=lambda t: (-t.priority, -t.pattern.max_width,
+                                                      -len(t.pattern.value), t.name))
+    regexes = [t for t in terminals if t.pattern.type == "re"]
+    embedded = {}
+    for t in terminals:          # string terminals that a regex terminal also matches (Lark's "unless")
+        if t.pattern.type != "str":
+            continue
+        for r in regexes:
+            m = re.match(r.pattern.to_regexp(), t.pattern.value)
+            if r.priority == t.priority and m and m.group(0) == t.pattern.value:
+                embedded[t.pattern.value] = t.name
+    names = {t.name: t for t in terminals}
+    keyword_terms = {name for name in embedded.values()
+                     if re.fullmatch(names["NAME"].pattern.to_regexp(), names[name].pattern.value)}
+
+    def symbol(s):
+        if s.name in keyword_terms:
+            return "KW"
+        return re.sub(r"_\d+$", "", s.name) if s.name.startswith("__") else s.name
+
+    shape, rules = [], {}
+    for r in lark.rules:
+        origin = symbol(r.origin)
+        rules.setdefault((r.origin.name, r.alias), []).append([s.name for s in r.expansion])
+        if origin in _FAST_RULES or (origin == "statement" and r.expansion[0].name in _FAST_STATEMENTS):
+            marks = ("!" if r.options.keep_all_tokens else "") + ("?" if r.options.expand1 else "")
+            shape.append(f"{origin}: {' '.join(symbol(s) for s in r.expansion)}"
+                         + (f" -> {r.alias}" if r.alias else "") + (f" {marks}" if marks else ""))
+
+    def literal(rule, alias, index):
+        for expansion in rules.get((rule, alias), []):
+            if len(expansion) > index and expansion[index] in keyword_terms:
+                return names[expansion[index]].pattern.value
+        return None
+
+    keywords = {name: literal(name, None, 0) for name in _FAST_STATEMENTS}
+    keywords.update(mod=literal("claim", "congruence", 4), by=literal("step", None, 2),
+                    use_claim=literal("rule", "use_claim", 0),
+                    relations=[e[0] for e in rules.get(("relation", None), [])])
+    return {"digest": _digest(), "shape": sorted(shape), "keywords": keywords,
+            "terminals": [[t.name, t.pattern.to_regexp(), t.pattern.value if t.pattern.type == "str" else None]
+                          for t in terminals],
+            "ignore": sorted(lark.ignore_tokens), "embedded": embedded,
+            "terminal_names": [t.name for t in lark.terminals]}
+
+
+@lru_cache(maxsize=1)
+def _plain_reader() -> PlainReader:
+    return PlainReader(grammar_tables())
 
 
 @lru_cache(maxsize=8)
-def _parser(limits: Limits = DEFAULT_LIMITS) -> Lark:
+def _parser(limits: Limits = DEFAULT_LIMITS):
+    global Token
+    from lark import Lark, Token
     # the Transformer runs inside the parser (one pass, no tree): much faster
     # on long certificates, and nothing recursive is left for deep nesting
     build = _Build(limits)
-    callbacks = {name: build.count_token for name in _terminal_names()}
+    callbacks = {name: build.count_token for name in grammar_tables()["terminal_names"]}
     return Lark(grammar_text(), parser="lalr", start=["expr", "certificate"],
-                maybe_placeholders=True, transformer=build, lexer_callbacks=callbacks)
+                maybe_placeholders=True, transformer=build, lexer_callbacks=callbacks,
+                **_lark_cache("transform"))
 
 
-def _tpos(tok: Token) -> ex.Pos:
+Token = None         # lark.Token, bound when Lark is first imported (by _parser)
+
+
+def _tpos(tok) -> ex.Pos:
     return ex.Pos(tok.line, tok.column, tok.end_line, tok.end_column)
 
 
@@ -71,19 +187,19 @@ def _span(children) -> ex.Pos:
     return ex.Pos(first.line, first.column, last.end_line, last.end_column)
 
 
-_RELATIONS = {"=": "=", "<": "<", ">": ">", "<=": "<=", ">=": ">=", "!=": "!=",
-              "\u2264": "<=", "\u2265": ">=", "\u2260": "!="}
+_RELATIONS = RELATIONS
 
 
-class _Build(Transformer):
+class _Build:
     """Parser callbacks -> dataclasses.  Builds only; never judges.
 
     Depth is tracked as nodes are made, so an expression nested beyond the
     budget is refused before anything recursive walks it.
     """
 
+    __visit_tokens__ = False           # what Lark's Transformer says: callbacks for rules only
+
     def __init__(self, limits: Limits):
-        super().__init__()
         self.limits = limits
         self.depth: dict = {}
         self.tokens = 0
@@ -346,6 +462,28 @@ def _refuse_misleading(text: str) -> None:
 
 def _parse(text: str, start: str, limits: Limits):
     _refuse_misleading(text)
+    result = read_plain(text, start, limits)
+    if result is not None:
+        return result
+    return parse_with_lark(text, start, limits)
+
+
+def read_plain(text: str, start: str, limits: Limits = DEFAULT_LIMITS):
+    """The plain reader's tree for `text`, or None when the text is for Lark."""
+    shared = _plain_reader()
+    if not shared.enabled:
+        return None
+    reader = object.__new__(PlainReader)  # its own position (parses may run in threads), shared tables
+    reader.__dict__.update(shared.__dict__)
+    try:
+        return reader.expression(text, limits) if start == "expr" else reader.certificate(text, limits)
+    except (GiveUp, RecursionError):
+        return None
+
+
+def parse_with_lark(text: str, start: str, limits: Limits = DEFAULT_LIMITS):
+    """The grammar's own parse (Lark's LALR parser with the Transformer inside)."""
+    from lark.exceptions import UnexpectedInput, VisitError
     parser = _parser(limits)
     parser.options.transformer.tokens = 0
     try:
@@ -494,7 +632,8 @@ def _acceptable(e: UnexpectedToken) -> set:
         return set(e.expected)
 
 
-def _syntax_problem(e: UnexpectedInput, text: str, expr_only: bool = False) -> SyntaxProblem:
+def _syntax_problem(e, text: str, expr_only: bool = False) -> SyntaxProblem:
+    from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedToken
     if isinstance(e, UnexpectedEOF) or getattr(e, "line", -1) in (-1, None):
         line, column = _end_position(text)
         expected = _keep(getattr(e, "expected", None) or [], expr_only)

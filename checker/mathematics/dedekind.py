@@ -45,7 +45,7 @@ from ..foundation.limits import check_time
 __all__ = [
     "dedekind", "dedekind_by_definition", "dedekind_along_euclid",
     "reciprocity_term", "dedekind_rademacher", "generalized_dedekind",
-    "generalized_dedekind_by_definition",
+    "generalized_dedekind_by_definition", "generalized_dedekind_by_reciprocity",
 ]
 
 _LEADING_BITS = 400          # bits of the leading parts simulated per batch
@@ -58,10 +58,19 @@ def reciprocity_term(h: int, k: int) -> Fraction:
     return Fraction(h * h + k * k + 1 - 3 * h * k, 12 * h * k)
 
 
-try:                                   # optional: GMP's modular inverse is much faster
-    from gmpy2 import invert as _gmp_invert
-except ImportError:                    # pragma: no cover - depends on the machine
-    _gmp_invert = None
+_NOT_LOADED = object()
+_gmp_invert = _NOT_LOADED             # optional: GMP's modular inverse is much faster on long numbers
+
+
+def _load_gmp():
+    """gmpy2's inverse, imported on first need (its import costs a start-up ~0.1 s)."""
+    global _gmp_invert
+    if _gmp_invert is _NOT_LOADED:
+        try:
+            from gmpy2 import invert as _gmp_invert
+        except ImportError:            # pragma: no cover - depends on the machine
+            _gmp_invert = None
+    return _gmp_invert
 
 
 def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int]:
@@ -145,9 +154,12 @@ def dedekind(h, k) -> Fraction:
     h, k = _reduced_pair(h, k)
     if k == 1:
         return Fraction(0)
-    if _gmp_invert is not None and k.bit_length() > _GMP_BITS:
+    invert = _gmp_invert if k.bit_length() > _GMP_BITS else None
+    if invert is _NOT_LOADED:
+        invert = _load_gmp()
+    if invert is not None:
         alt, n, _ = _euclid(k, h, False)
-        inverse = int(_gmp_invert(h, k))
+        inverse = int(invert(h, k))
     else:
         alt, n, inverse = _euclid(k, h, True)
         inverse %= k
@@ -167,21 +179,28 @@ def dedekind_by_definition(h, k) -> Fraction:
     return Fraction(total, 4 * k * k)
 
 
-def dedekind_along_euclid(h: int, k: int) -> dict[tuple[int, int], Fraction]:
-    """s at every pair met by reduce/reciprocity from (h, k), keyed by (h mod k, k).
+def dedekind_along_euclid(h: int, k: int) -> dict[tuple[int, int], tuple[int, int]]:
+    """12 k s(h, k) at every pair met by reduce/reciprocity from (h, k), keyed by (h mod k, k).
 
-    One pass down Euclid's algorithm and one back up with the reciprocity law:
-    the values that a chain of reciprocity steps needs, all for the price of one.
+    Values are the integers t = 12 k s(h, k) (an integer by the formula above),
+    so that nothing is reduced that nobody asked for: s = t / (12 k).  One pass
+    down Euclid's algorithm and one back up with reciprocity in integer form,
+
+        h t(h, k) + k t(k mod h, h) = h^2 + k^2 + 1 - 3 h k,
+
+    each division exact (an inexact one would be a bug, and raises).
     """
     h, k = _reduced_pair(h, k)
     pairs = []
     while k > 1:
         pairs.append((h, k))
         h, k = k % h, h
-    values = {(0, 1): Fraction(0)}
-    below = Fraction(0)
+    values = {(0, 1): 0}
+    below = 0                       # t at the pair below, 12 h s(k mod h, h)
     for h, k in reversed(pairs):
-        below = reciprocity_term(h, k) - below
+        below, rest = divmod(h * h + k * k + 1 - 3 * h * k - k * below, h)
+        if rest:
+            raise ArithmeticError(f"12 k s(h, k) is not an integer at ({h}, {k})")
         values[(h, k)] = below
     return values
 
@@ -256,6 +275,60 @@ def generalized_dedekind(p, h, k) -> Fraction:
     """Apostol's generalized Dedekind sum s_p(h, k) = sum_{j mod k} (j/k) Bbar_p(hj/k).
 
     Apostol, "Generalized Dedekind sums and transformation formulae of
-    certain Lambert series", Duke Math. J. 17 (1950); s_1 = s.  Exact, O(k p).
+    certain Lambert series", Duke Math. J. 17 (1950); s_1 = s.  For odd p and
+    coprime h, k his reciprocity law gives the value along Euclid's algorithm
+    in O(p log k) steps; otherwise (and for small k, where the sum is cheap and
+    independent of the law the `reciprocity` rule uses) the sum itself, O(k p).
     """
+    p = as_integer(p, "the order of a generalized Dedekind sum")
+    h = as_integer(h, "the second argument of generalized_dedekind")
+    k = as_positive(k, "the third argument of generalized_dedekind")
+    if p >= 1 and p % 2 == 1 and k > _SUM_BELOW and gcd(h, k) == 1:
+        return generalized_dedekind_by_reciprocity(p, h, k)
     return generalized_dedekind_by_definition(p, h, k)
+
+
+_SUM_BELOW = 64          # up to this k the O(k p) sum is as fast
+
+
+def generalized_dedekind_by_reciprocity(p: int, h: int, k: int) -> Fraction:
+    """s_p(h, k) for odd p >= 1 and coprime h, k >= 1 by Apostol's reciprocity law (1950):
+
+        (p + 1) (h k^p s_p(h, k) + k h^p s_p(k, h))
+            = sum_{j=0}^{p+1} C(p+1, j) (-1)^j B_j B_{p+1-j} h^j k^{p+1-j} + p B_{p+1},
+
+    with s_p(h, k) depending on h mod k only, down Euclid's chain to s_p(0, 1) = 0.
+    """
+    if p < 1 or p % 2 == 0 or k < 1 or gcd(h, k) != 1:
+        raise DomainError("Apostol's reciprocity needs an odd order and coprime arguments")
+    b = bernoulli_numbers(p + 1)
+    coefficients = [comb(p + 1, j) * (-1) ** j * b[j] * b[p + 1 - j] for j in range(p + 2)]
+    denominator = 1
+    for c in coefficients:
+        denominator = denominator * c.denominator // gcd(denominator, c.denominator)
+    ints = [int(c * denominator) for c in coefficients]          # exact: c * lcm is whole
+    constant = p * b[p + 1] * denominator
+    pairs = []
+    h %= k
+    while k > 1:
+        pairs.append((h, k))
+        h, k = k % h, h
+    value = Fraction(0)                                           # s_p(0, 1)
+    for h, k in reversed(pairs):
+        right = _homogeneous(ints, h, k)                          # sum_j C_j h^j k^(p+1-j)
+        law = (Fraction(right) + constant) / (denominator * (p + 1))
+        value = (law - k * h ** p * value) / (h * k ** p)
+    return value
+
+
+def _homogeneous(ints: list, h: int, k: int) -> int:
+    """sum_j ints[j] h^j k^(len-1-j)."""
+    n = len(ints) - 1
+    h_powers = [1]
+    for _ in range(n):
+        h_powers.append(h_powers[-1] * h)
+    total, k_power = 0, 1
+    for j in range(n, -1, -1):
+        total += ints[j] * h_powers[j] * k_power
+        k_power *= k
+    return total

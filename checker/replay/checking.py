@@ -6,6 +6,7 @@ a Report.  The judgements themselves are ``kernel``'s; the words are here.
 """
 from __future__ import annotations
 
+import dataclasses
 import difflib
 import secrets
 import time
@@ -22,7 +23,7 @@ from ..foundation.limits import DEFAULT_LIMITS, Limits, time_limit
 from ..kernel.normal import Normaliser, text as nf_text
 from ..foundation.numbers import value_text
 from ..language.parsing import parse_certificate
-from .library import read_certificate_text, use_lemmas
+from .library import checked_before, read_certificate_text, remember_checked, use_lemmas
 from .report import Failure, Report
 from .step_details import cited_rules, lemma_statements, rule_details, short, unknown_rule
 from ..kernel.rules import RULES, WHOLE_LINE_RULES
@@ -71,6 +72,11 @@ def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
 
     `seed` fixes the instances of the lemmas' numeric second opinion (the same seed gives the
     same instances); by default they are drawn from an unpredictable source, new each run."""
+    return _check(text, name, limits, keep_going, paranoid, seed)[0]
+
+
+def _check(text, name, limits, keep_going, paranoid, seed=None):
+    """(the Report, the replay that made it, or None when the text did not parse)."""
     start = time.perf_counter()
     report = Report(name=name, text=text)
     try:
@@ -78,10 +84,11 @@ def check_text(text: str, name: str = "<text>", limits: Limits = DEFAULT_LIMITS,
     except CertificateError as e:
         report.failures.append(_from_error(e, exit_code=2))
         report.seconds = time.perf_counter() - start
-        return report
-    _Replay(cert, report, limits, keep_going, paranoid, seed).run()
+        return report, None
+    replay = _Replay(cert, report, limits, keep_going, paranoid, seed)
+    replay.run()
     report.seconds = time.perf_counter() - start
-    return report
+    return report, replay
 
 
 def check_certificate(cert: st.Certificate, limits: Limits = DEFAULT_LIMITS,
@@ -103,7 +110,16 @@ def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False,
         report = Report(name=str(path))
         report.failures.append(_from_error(e, exit_code=2))
         return report
-    return check_text(text, str(path), limits, keep_going, paranoid, seed)
+    # a file checked once in a process is not checked again: neither when a later
+    # certificate uses it nor when it comes again after a `use` already checked it
+    earlier = checked_before(path, text, limits) if not (keep_going or paranoid) else None
+    if earlier is not None:
+        return dataclasses.replace(earlier, name=str(path), failures=list(earlier.failures),
+                                   notes=list(earlier.notes), seconds=0.0)
+    report, replay = _check(text, str(path), limits, keep_going, paranoid, seed)
+    if replay is not None and not replay.using:
+        remember_checked(path, text, limits, report, replay)
+    return report
 
 
 def _from_error(e: CertificateError, exit_code: int | None = None, source_note=None) -> Failure:
@@ -329,7 +345,7 @@ class _Replay:
         if problem:
             self._fail(Failure(pos.line, pos.column, problem, claimed=Fraction(g)))
             return
-        # the witness proves it; the kernel's residue table must agree (second judgement)
+        # the witness proves it; the kernel's own value must agree (second judgement)
         exact = kernel_frobenius(parts)
         if exact != g:
             self._fail(Failure(pos.line, pos.column, f"the witness holds but the kernel computes "
@@ -372,6 +388,13 @@ class _Replay:
     def _Chain(self, stmt):
         if not self._claim_label(stmt.label, stmt):
             return
+        self.evaluator.chain_wanted = True      # its steps walk Euclid's chain: one pass gives all values
+        try:
+            self._chain_steps(stmt)
+        finally:
+            self.evaluator.chain_wanted = False
+
+    def _chain_steps(self, stmt):
         prev_nf = self.normaliser.normal(stmt.start)
         prev_value = nf_value(prev_nf, self._call, self.limits)
         start_nf, all_ok = prev_nf, True

@@ -21,7 +21,7 @@ from ..foundation.resources import resource_dir
 from ..language.parsing import parse_certificate
 from .report import Report
 
-__all__ = ["use_lemmas", "resolve_use", "read_certificate_text"]
+__all__ = ["use_lemmas", "resolve_use", "read_certificate_text", "remember_checked", "checked_before"]
 
 _MAX_DEPTH = 16
 # one check per text and limits in a process: the same file, unchanged, proves the same lemmas
@@ -128,17 +128,38 @@ def _checked(replay, path: Path, key: str, chain: tuple):
     remembered = (key, _digest_text(text), replay.limits)
     hit = _VERIFIED.get(remembered)
     if hit is not None and all(_digest_file(p) == d for p, d in hit[1].items()):
-        return hit
+        return hit[:2]
     report = Report(name=key, text=text)
     nested = replay.nested(cert, report)
     nested.using = chain
     nested.run()
-    result = report.failures[0] if report.failures else list(nested.lemmas.values())
-    known = (result, {key: remembered[1], **nested.read})
+    return _remember(remembered, report, nested)
+
+
+def _remember(remembered, report, replay):
+    """Keep what a full check of one file found: its lemmas or first failure, the files read, the report."""
+    result = report.failures[0] if report.failures else list(replay.lemmas.values())
+    known = (result, {remembered[0]: remembered[1], **replay.read}, report)
     if len(_VERIFIED) > 64:
         _VERIFIED.clear()
     _VERIFIED[remembered] = known
-    return known
+    return known[:2]
+
+
+def remember_checked(path, text: str, limits: Limits, report, replay) -> None:
+    """A file checked on its own (`quasicert check FILE`) serves a later `use` of it in the process."""
+    key = _key_of(str(path))
+    if key and not (replay.keep_going and report.failures):
+        _remember((key, _digest_text(text), limits), report, replay)
+
+
+def checked_before(path, text: str, limits: Limits):
+    """The report of an earlier full check of this unchanged file in this process, or None."""
+    key = _key_of(str(path))
+    hit = _VERIFIED.get((key, _digest_text(text), limits)) if key else None
+    if hit is None or not all(_digest_file(p) == d for p, d in hit[1].items()):
+        return None
+    return hit[2]
 
 
 def _digest_text(text: str) -> str:

@@ -8,6 +8,7 @@ import pytest
 from hypothesis import given, strategies as st
 
 from checker.mathematics.dedekind import (dedekind, dedekind_along_euclid, dedekind_by_definition,
+                                          generalized_dedekind_by_reciprocity,
                               dedekind_rademacher, generalized_dedekind,
                               generalized_dedekind_by_definition, reciprocity_term)
 from checker.mathematics.elementary import sawtooth
@@ -48,7 +49,7 @@ def test_both_inverse_paths_against_python_flint(monkeypatch, use_gmpy2):
     import checker.mathematics.dedekind as module
     if not use_gmpy2:
         monkeypatch.setattr(module, "_gmp_invert", None)
-    elif module._gmp_invert is None:
+    elif module._load_gmp() is None:
         pytest.skip("gmpy2 is not installed")
     rng = random.Random(17)
     for digits in (1, 3, 30, 140, 141, 400, 1200):
@@ -115,8 +116,13 @@ def test_reciprocity(h, k):
 @given(st.integers(1, 10**80), st.integers(1, 10**80))
 def test_along_euclid_agrees_with_fast_path(h, k):
     values = dedekind_along_euclid(h, k)
-    for (a, b), v in list(values.items())[:30]:
-        assert dedekind(a, b) == v
+    for (a, b), t in list(values.items())[:30]:
+        assert Fraction(t, 12 * b) == dedekind(a, b)
+    h, k = h % k, k
+    if gcd(h, k) == 1 and k > 1:       # python-flint's fmpq.dedekind_sum, every pair
+        for (a, b), t in values.items():
+            assert Fraction(t, 12 * b) == Fraction(int(flint.fmpq.dedekind_sum(a, b).p),
+                                                   int(flint.fmpq.dedekind_sum(a, b).q))
 
 
 def _dr_definition(h, k, x, y):
@@ -180,3 +186,49 @@ def test_domain_errors(args, message):
     with pytest.raises(DomainError) as info:
         dedekind(*args)
     assert info.value.message == message
+
+
+# -- Apostol's s_p by his reciprocity law ---------------------------------------
+
+def _sympy_apostol(p, h, k):
+    # the definition with sympy's Bernoulli polynomials: sum_j (j/k) Bbar_p(h j/k), Bbar_p(x) = B_p({x})
+    import sympy
+    total = sympy.Integer(0)
+    for j in range(k):
+        x = sympy.Rational(h * j % k, k)
+        value = 0 if (p == 1 and x == 0) else sympy.bernoulli(p, x)
+        total += sympy.Rational(j, k) * value
+    return Fraction(int(total.p), int(total.q))
+
+
+def test_apostol_reciprocity_values_against_sympy():
+    # sympy's Bernoulli polynomials summed term by term (an outside source of the definition)
+    rng = random.Random(150)
+    for _ in range(60):
+        p, k = rng.choice([1, 3, 5, 7]), rng.randint(65, 160)
+        h = rng.randint(-3 * k, 3 * k)
+        if gcd(h, k) == 1:
+            assert generalized_dedekind_by_reciprocity(p, h, k) == _sympy_apostol(p, h, k)
+
+
+@given(st.sampled_from([1, 3, 5, 9, 11]), st.integers(-10**4, 10**4), st.integers(1, 700))
+def test_apostol_reciprocity_against_the_sum(p, h, k):
+    # the old O(k p) path, term by term
+    if gcd(h, k) == 1:
+        assert generalized_dedekind_by_reciprocity(p, h, k) == generalized_dedekind_by_definition(p, h, k)
+        assert generalized_dedekind(p, h, k) == generalized_dedekind_by_definition(p, h, k)
+
+
+@given(st.integers(1, 10**40), st.integers(1, 10**40))
+def test_apostol_order_one_is_dedekind(h, k):
+    # s_1 = s (Apostol 1950), against python-flint's fmpq.dedekind_sum
+    if gcd(h, k) == 1:
+        assert generalized_dedekind(1, h, k) == flint_fraction(flint.fmpq.dedekind_sum(h, k))
+
+
+def test_apostol_even_order_and_common_factor_use_the_sum():
+    # no reciprocity law for even p or gcd(h, k) > 1: the definition itself
+    assert generalized_dedekind(2, 5, 101) == generalized_dedekind_by_definition(2, 5, 101)
+    assert generalized_dedekind(3, 10, 100) == generalized_dedekind_by_definition(3, 10, 100)
+    with pytest.raises(DomainError):
+        generalized_dedekind_by_reciprocity(2, 5, 101)

@@ -6,7 +6,7 @@ from pathlib import Path
 
 import pytest
 
-from checker import check_file, check_text
+from checker import check_file, check_text, evaluate
 from checker.interfaces.cli import bundled_certificates, main
 
 BROKEN = sorted((Path(__file__).parent.parent / "broken").glob("*.qcert"))
@@ -144,3 +144,27 @@ def test_a_folder_is_searched_recursively(tmp_path):
     code, out, _ = run(["check", str(tmp_path)])
     assert code == 0
     assert "2 certificates, 2 claims and steps verified" in out
+
+
+def test_a_wrong_euclid_pass_is_a_checker_bug(monkeypatch):
+    # the integer pass along Euclid's chain checks its own divisions; a planted failure
+    # must be reported as a bug of quasicert (exit 3), never as a crash or a verdict
+    import checker.kernel.evaluation as evaluation
+    from checker.interfaces.derive import derive_dedekind
+
+    def broken(h, k):
+        raise ArithmeticError("12 k s(h, k) is not an integer at (1, 2)")
+    text = derive_dedekind(3**200 + 1, 10**100 + 7)
+    monkeypatch.setattr(evaluation, "dedekind_along_euclid", broken)
+    report = check_text(text)
+    assert not report.ok and report.failure.kind == "checker bug" and report.exit_code == 3
+
+
+def test_one_long_value_and_a_chain_agree_with_python_flint():
+    # python-flint's fmpq.dedekind_sum: one value by the kernel, and every value of a derived chain
+    import flint
+    from checker.interfaces.derive import derive_dedekind
+    h, k = 7**150 + 2, 10**120 + 9
+    s = flint.fmpq.dedekind_sum(h, k)
+    assert evaluate(f"dedekind({h}, {k})") == Fraction(int(s.p), int(s.q))
+    assert check_text(derive_dedekind(h, k)).ok

@@ -79,7 +79,9 @@ HOSTILE = [
     ("a giant sum by definition", "chain dedekind(1, 10^9)\n  = 0 by definition\n", "limit"),
     ("giant finite sum", "claim total(j from 1 to 10^15: j) = 0\n", "limit"),
     ("giant partition table", "claim partitions(10^12, [10^9, 10^9 + 1]) = 0\n", "limit"),
-    ("giant Frobenius table", "claim frobenius([10^12 + 1, 10^12]) = 0\n", "limit"),
+    # four generators need the residue table of min(A) entries; two or three are O(log)
+    ("giant Frobenius table", "claim frobenius([10^12 + 1, 10^12, 10^12 + 3, 10^12 + 7]) = 0\n", "limit"),
+    ("giant Frobenius pair", "claim frobenius([10^12 + 1, 10^12]) = 10^24 - 10^12 - 1\n", None),
     ("huge Fourier-Dedekind modulus", "claim fourier_dedekind(1, [1, 1], 10^9000 + 1) = 0\n", "limit"),
     ("power of a call", "chain dedekind(1, 3)^(10^7)\n  = 0 by value\n", "limit"),
     ("long literal", "claim " + "9" * 300_000 + " = 1\n", "limit"),

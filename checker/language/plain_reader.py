@@ -1,0 +1,457 @@
+"""A fast reader for the plain part of the language, built from the grammar's own tables.
+
+Lark's LALR parser is the definition of the language (``grammar/*.lark``), but it
+handles some 50,000 tokens a second here.  Most certificates are plain: titles,
+sources, `let`, claims, congruences and chains of named rules over expressions.
+This module reads exactly those, by recursive descent, with one regular
+expression made of the grammar's terminals in Lark's own order, and builds the
+same dataclasses with the same positions as the Transformer in ``parsing``.
+
+It never decides anything the grammar might decide otherwise: whatever it does
+not recognise (another statement, a keyword standing where a name could be, a
+syntax error, a budget about to be exceeded) makes it give up, and the caller
+hands the whole text to Lark, which then gives the same tree or the error.
+The keywords and terminals come from the grammar through ``tables``; the
+shape of the rules it reads is pinned by ``SHAPE``, and when the grammar's rules
+no longer have that shape the reader switches itself off.
+``tests/language/test_plain_reader.py`` compares both readers on the bundled,
+broken and fuzzed certificates.
+"""
+from __future__ import annotations
+
+import re
+
+from . import expressions as ex
+from . import statements as st
+from ..foundation.numbers import text_int
+
+__all__ = ["PlainReader", "GiveUp", "SHAPE", "RELATIONS"]
+
+RELATIONS = {"=": "=", "<": "<", ">": ">", "<=": "<=", ">=": ">=", "!=": "!=",
+             "\u2264": "<=", "\u2265": ">=", "\u2260": "!="}
+
+# The rules this reader implements, with every keyword written KW (so a renamed
+# keyword keeps the shape) and Lark's numbered helper rules without their numbers.
+SHAPE = [
+    '__arguments_star: COMMA expr',
+    '__arguments_star: __arguments_star COMMA expr',
+    '__chain_plus: __chain_plus step !',
+    '__chain_plus: step !',
+    '__product_star: MULOP unary',
+    '__product_star: __product_star MULOP unary',
+    '__step_star: COMMA rule !',
+    '__step_star: __step_star COMMA rule !',
+    '__sum_star: ADDOP product',
+    '__sum_star: __sum_star ADDOP product',
+    'arguments: expr',
+    'arguments: expr __arguments_star',
+    'atom: INT -> number ?',
+    'atom: LPAR expr RPAR ?',
+    'atom: NAME -> name ?',
+    'atom: call ?',
+    'atom: finite_sum ?',
+    'atom: list ?',
+    'call: NAME LPAR RPAR !',
+    'call: NAME LPAR arguments RPAR !',
+    'chain: KW expr __chain_plus !',
+    'chain: KW label expr __chain_plus !',
+    'claim: KW expr CONGRUENT expr KW expr -> congruence !',
+    'claim: KW expr relation expr !',
+    'claim: KW label expr CONGRUENT expr KW expr -> congruence !',
+    'claim: KW label expr relation expr !',
+    'expr: sum ?',
+    'finite_sum: KW LPAR NAME EQUALS expr __ANON expr COMMA expr RPAR !',
+    'label: NAME COLON',
+    'let: KW NAME EQUALS expr !',
+    'list: LSQB RSQB !',
+    'list: LSQB arguments RSQB !',
+    'power: atom ?',
+    'power: atom CIRCUMFLEX unary -> power ?',
+    'product: unary ?',
+    'product: unary __product_star ?',
+    'relation: EQUALS',
+    'relation: GREATER',
+    'relation: GREATER_EQUAL',
+    'relation: LESS',
+    'relation: LESS_EQUAL',
+    'relation: NOT_EQUAL',
+    'rule: KW NAME -> use_claim',
+    'rule: KW NAME LPAR RPAR -> use_lemma',
+    'rule: KW NAME LPAR arguments RPAR -> use_lemma',
+    'rule: NAME',
+    'source: KW STRING !',
+    'statement: chain ?',
+    'statement: claim ?',
+    'statement: let ?',
+    'statement: source ?',
+    'statement: title ?',
+    'step: EQUALS expr KW rule !',
+    'step: EQUALS expr KW rule __step_star !',
+    'sum: product ?',
+    'sum: product __sum_star ?',
+    'title: KW STRING !',
+    'unary: MINUS unary -> neg ?',
+    'unary: PLUS unary ?',
+    'unary: power ?',
+]
+
+
+class GiveUp(Exception):
+    """This text is for Lark to read."""
+
+
+_END = "$END"
+_NO_ROLES = frozenset()
+
+
+def _may_span_lines(regex: str) -> bool:
+    """Lark's test of a terminal that may contain a newline, a little wider."""
+    return "\n" in regex or "\\n" in regex or "\\s" in regex or "[^" in regex or "." in regex
+
+
+class PlainReader:
+    """Reads plain certificates and expressions; `tables` come from ``parsing.grammar_tables``."""
+
+    def __init__(self, tables: dict):
+        self.enabled = tables["shape"] == SHAPE
+        terminals = tables["terminals"]            # [name, regex, literal or None], in Lark's order
+        self.ignore = frozenset(tables["ignore"])
+        embedded = tables["embedded"]               # literal string terminals a regex terminal covers
+        self.kinds = []
+        parts = []
+        for name, regex, literal in terminals:
+            if literal is not None and literal in embedded:
+                continue
+            parts.append(f"(?P<T{len(self.kinds)}>{regex})")
+            self.kinds.append(name)
+        self.master = re.compile("|".join(parts))
+        self.group_kind = {f"T{i}": k for i, k in enumerate(self.kinds)}
+        self.small = {name: re.compile(regex) for name, regex, literal in terminals}
+        self.by_literal = {literal: name for name, _, literal in terminals if literal is not None}
+        self.embedded = embedded                    # literal -> terminal name
+        self.keywords = frozenset(lit for lit in embedded if self.small["NAME"].fullmatch(lit))
+        kw = tables["keywords"]
+        self.statement = {kw[r]: r for r in ("title", "source", "let", "claim", "chain")}
+        self.kw = kw
+        self._roles: dict = {}
+        # terminals whose lexemes are never anything else (long numbers and names, mostly)
+        self.plain_roles = {k: frozenset((k,)) for k in ("NAME", "INT", "STRING") if k in self.small}
+        self.multiline = frozenset(name for name, regex, _ in terminals if _may_span_lines(regex))
+
+    # -- tokens ----------------------------------------------------------------
+    def _start(self, text: str, limits):
+        self.text = text
+        self.limits = limits
+        self.pos = 0
+        self.size = len(text)
+        self.tokens = limits.tokens
+        self.line = 1
+        self.line_start = 0
+        self.count = 0
+        self._next()
+
+    def _next(self):
+        """Move to the next significant token: kind, lexeme, roles, line, column."""
+        text, match, ignore, kinds = self.text, self.master.match, self.ignore, self.group_kind
+        while True:
+            pos = self.pos
+            if pos >= self.size:
+                self.kind, self.lex, self.roles = _END, "", _NO_ROLES
+                self.tline, self.tcol = self.line, pos - self.line_start + 1
+                return
+            m = match(text, pos)
+            if m is None:
+                raise GiveUp()
+            lex = m.group()
+            kind = kinds[m.lastgroup]
+            self.count += 1
+            if self.count > self.tokens:
+                raise GiveUp()
+            self.pos = m.end()
+            if kind in ignore:
+                if "\n" in lex:
+                    self.line += lex.count("\n")
+                    self.line_start = pos + lex.rindex("\n") + 1
+                continue
+            if kind in self.multiline and "\n" in lex:
+                raise GiveUp()                 # a token over two lines: Lark's business
+            self.kind, self.lex, self.tline, self.tcol = kind, lex, self.line, pos - self.line_start + 1
+            roles = self.plain_roles.get(kind)
+            if roles is None or lex in self.embedded:
+                roles = self._roles_of(kind, lex)
+            self.roles = roles
+            return
+
+    def _roles_of(self, kind, lex) -> frozenset:
+        """Every terminal the lexeme can be: Lark's contextual lexer picks among them by state."""
+        key = (kind, lex)
+        roles = self._roles.get(key)
+        if roles is None:
+            found = {n for n, rx in self.small.items() if rx.fullmatch(lex)}
+            found.add(kind)
+            if lex in self.embedded:
+                found.add(self.embedded[lex])
+            roles = frozenset(found)
+            if len(self._roles) < 10_000:
+                self._roles[key] = roles
+        return roles
+
+    def _is(self, role: str) -> bool:
+        """Can the current token be read as the terminal `role`?"""
+        return role in self.roles
+
+    def _literal(self, literal: str) -> bool:
+        return self._is(self.by_literal[literal]) if literal in self.by_literal else False
+
+    def _pos(self) -> ex.Pos:
+        return ex.Pos(self.tline, self.tcol, self.tline, self.tcol + len(self.lex))
+
+    def _expect_literal(self, literal: str) -> ex.Pos:
+        if not self._literal(literal):
+            raise GiveUp()
+        p = self._pos()
+        self._next()
+        return p
+
+    def _plain_name(self) -> bool:
+        """A NAME that Lark reads as a name here (a keyword never is, to be safe)."""
+        return self.kind == "NAME" and self.lex not in self.keywords
+
+    # -- entry points ------------------------------------------------------------
+    def expression(self, text: str, limits):
+        if not self.enabled:
+            raise GiveUp()
+        self._start(text, limits)
+        node, _ = self._expr()
+        if self.kind != _END:
+            raise GiveUp()
+        return node
+
+    def certificate(self, text: str, limits) -> list:
+        if not self.enabled:
+            raise GiveUp()
+        self._start(text, limits)
+        out = []
+        while self.kind != _END:
+            if self.kind != "NAME" or self.lex not in self.statement:
+                raise GiveUp()
+            out.append(getattr(self, "_" + self.statement[self.lex])())
+        return out
+
+    # -- statements --------------------------------------------------------------
+    def _string_statement(self, cls):
+        first = self._pos()
+        self._next()
+        if self.kind != "STRING":
+            raise GiveUp()
+        node = cls(self.lex[1:-1], _span(first, self._pos()))
+        self._next()
+        return node
+
+    def _title(self):
+        return self._string_statement(st.Title)
+
+    def _source(self):
+        return self._string_statement(st.Source)
+
+    def _let(self):
+        first = self._pos()
+        self._next()
+        if not self._plain_name():
+            raise GiveUp()
+        name = self.lex
+        self._next()
+        if not self._is("EQUALS"):
+            raise GiveUp()
+        self._next()
+        value, _ = self._expr()
+        return st.Let(name, value, _span(first, value.pos))
+
+    def _label_then_expr(self):
+        """[label] expr: a NAME followed by ':' is a label."""
+        if self._plain_name():
+            name, pos = self.lex, self._pos()
+            self._next()
+            if self._is("COLON"):
+                self._next()
+                return name, self._expr()[0]
+            return None, self._expr(first=self._name_or_call(name, pos))[0]
+        return None, self._expr()[0]
+
+    def _claim(self):
+        first = self._pos()
+        self._next()
+        label, lhs = self._label_then_expr()
+        if self._is("CONGRUENT"):
+            self._next()
+            rhs, _ = self._expr()
+            if self.kind != "NAME" or self.lex != self.kw["mod"]:
+                raise GiveUp()
+            self._next()
+            modulus, _ = self._expr()
+            return st.Congruence(label, lhs, rhs, modulus, _span(first, modulus.pos))
+        relation = RELATIONS.get(self.lex) if self.kind in self.relations else None
+        if relation is None:
+            raise GiveUp()
+        self._next()
+        rhs, _ = self._expr()
+        return st.Claim(label, lhs, relation, rhs, _span(first, rhs.pos))
+
+    @property
+    def relations(self):
+        return self.kw["relations"]
+
+    def _chain(self):
+        first = self._pos()
+        self._next()
+        label, start = self._label_then_expr()
+        steps = []
+        while self._is("EQUALS"):
+            steps.append(self._step())
+        if not steps:
+            raise GiveUp()
+        return st.Chain(label, start, tuple(steps), _span(first, steps[-1].pos))
+
+    def _step(self):
+        first = self._pos()
+        self._next()
+        expr, _ = self._expr()
+        if self.kind != "NAME" or self.lex != self.kw["by"]:
+            raise GiveUp()
+        self._next()
+        rules = [self._rule()]
+        while self._is("COMMA"):
+            self._next()
+            rules.append(self._rule())
+        return st.Step(expr, tuple(rules), _span(first, rules[-1].pos))
+
+    def _rule(self):
+        if self._plain_name():
+            ref = st.RuleRef(self.lex, None, self._pos())
+            self._next()
+            return ref
+        if self.kind == "NAME" and self.lex == self.kw["use_claim"]:
+            self._next()
+            if not self._plain_name():
+                raise GiveUp()
+            ref = st.RuleRef("claim", self.lex, self._pos())
+            self._next()
+            return ref
+        raise GiveUp()
+
+    # -- expressions ---------------------------------------------------------------
+    # Each returns (node, depth); depth as the Transformer counts it: names and
+    # numbers 0, any other node one more than its deepest child.
+    def _made(self, node, depth):
+        if depth > self.limits.nesting:
+            raise GiveUp()
+        return node, depth
+
+    def _expr(self, first=None):
+        return self._sum(first)
+
+    def _sum(self, first=None):
+        head = self._product(first)
+        if not "ADDOP" in self.roles:
+            return head
+        terms, depth = [(1, head[0])], head[1]
+        while "ADDOP" in self.roles:
+            sign = 1 if self.lex == "+" else -1
+            self._next()
+            term = self._product()
+            terms.append((sign, term[0]))
+            depth = max(depth, term[1])
+        return self._made(ex.Sum(tuple(terms), _span(head[0].pos, terms[-1][1].pos)), depth + 1)
+
+    def _product(self, first=None):
+        head = self._unary(first)
+        if not "MULOP" in self.roles:
+            return head
+        factors, depth = [(False, head[0])], head[1]
+        while "MULOP" in self.roles:
+            divide = self.lex == "/"
+            self._next()
+            factor = self._unary()
+            factors.append((divide, factor[0]))
+            depth = max(depth, factor[1])
+        return self._made(ex.Product(tuple(factors), _span(head[0].pos, factors[-1][1].pos)), depth + 1)
+
+    def _unary(self, first=None):
+        if first is None:
+            if "MINUS" in self.roles:
+                where = self._pos()
+                self._next()
+                operand, depth = self._unary()
+                return self._made(ex.Neg(operand, _span(where, operand.pos)), depth + 1)
+            if "PLUS" in self.roles:
+                self._next()
+                return self._unary()
+        base = self._atom() if first is None else first
+        if not "CIRCUMFLEX" in self.roles:
+            return base
+        self._next()
+        exponent = self._unary()
+        return self._made(ex.Power(base[0], exponent[0], _span(base[0].pos, exponent[0].pos)),
+                          max(base[1], exponent[1]) + 1)
+
+    def _atom(self):
+        kind = self.kind
+        if kind == "INT":
+            if len(self.lex) > self.limits.literal_digits:
+                raise GiveUp()
+            node = ex.Num(text_int(self.lex), self._pos())
+            self._next()
+            return node, 0
+        if self._plain_name():
+            name, pos = self.lex, self._pos()
+            self._next()
+            return self._name_or_call(name, pos)
+        if "LPAR" in self.roles:
+            self._next()
+            inner = self._expr()
+            if not "RPAR" in self.roles:
+                raise GiveUp()
+            self._next()
+            return inner
+        if "LSQB" in self.roles:
+            first = self._pos()
+            self._next()
+            items, depth = self._arguments("RSQB")
+            if len(items) > self.limits.list_length:
+                raise GiveUp()
+            last = self._pos()
+            self._next()
+            return self._made(ex.ListExpr(tuple(items), _span(first, last)), depth + 1)
+        raise GiveUp()
+
+    def _name_or_call(self, name, pos):
+        """The NAME just read: a call when "(" follows, else a name."""
+        if "LPAR" in self.roles:
+            return self._call(name, pos)
+        return ex.Name(name, pos), 0
+
+    def _call(self, name, pos):
+        self._next()
+        args, depth = self._arguments("RPAR")
+        last = self._pos()
+        self._next()
+        return self._made(ex.Call(name, tuple(args), _span(pos, last)), depth + 1)
+
+    def _arguments(self, closing: str):
+        """expr ("," expr)* up to the closing terminal (left current); (items, deepest)."""
+        items, depth = [], 0
+        if self._is(closing):
+            return items, depth
+        while True:
+            node, d = self._expr()
+            items.append(node)
+            depth = max(depth, d)
+            if self._is(closing):
+                return items, depth
+            if not "COMMA" in self.roles:
+                raise GiveUp()
+            self._next()
+
+
+def _span(first: ex.Pos, last: ex.Pos) -> ex.Pos:
+    return ex.Pos(first.line, first.column, last.end_line, last.end_column)

@@ -44,7 +44,7 @@ PIECES = ["claim", "chain", "let", "title", "source", "by", "mod", "sum", "lemma
           "x", "h'", "k''", "_a1", "dedekind", "12", "0", "9" * 30, "(", ")", "[", "]", ",", ":", "..",
           "=", "==", "<", "<=", ">", ">=", "!=", "\u2264", "\u2265", "\u2260", "\u2261", "+", "-", "\u2212",
           "*", "/", "\u00b7", "\u00d7", "^", '"a text"', '"', "#c\n", "\n", " ", "\t", "\r\n", "\u00e9", "$",
-          "claim x:", "by reduce", "= 1 by value"]
+          "claim x:", "by reduce", "= 1 by value", "total", "from", "to", "(mod", "by definition"]
 
 
 def _same(text, start="certificate", limits=DEFAULT_LIMITS):

@@ -156,7 +156,44 @@ def _frame_of(poly):
     return f
 
 
+def _components(rows, e):
+    """Groups of coordinates that no row links: the polytope is their product."""
+    parent = list(range(e))
+
+    def root(i):
+        while parent[i] != i:
+            parent[i] = parent[parent[i]]
+            i = parent[i]
+        return i
+    for a, _ in rows:
+        used = [j for j in range(e) if a[j]]
+        for j in used[1:]:
+            parent[root(j)] = root(used[0])
+    groups: dict = {}
+    for j in range(e):
+        groups.setdefault(root(j), []).append(j)
+    return list(groups.values())
+
+
 def _enumerate(rows, rhs, lo, hi, spend: Spend) -> int:
+    """#{y in Z^e : lo <= y <= hi, a_i . y <= rhs_i}: a product over independent groups of coordinates."""
+    e = len(lo)
+    if e == 0:
+        return 1 if all(r >= 0 for r in rhs) else 0
+    if any(r < 0 for (a, _), r in zip(rows, rhs) if not any(a)):
+        return 0
+    total = 1
+    for group in _components(rows, e):
+        picked = [i for i, (a, _) in enumerate(rows) if any(a[j] for j in group)]
+        sub_rows = [(tuple(rows[i][0][j] for j in group), None) for i in picked]
+        total *= _enumerate_connected(sub_rows, [rhs[i] for i in picked], [lo[j] for j in group],
+                                      [hi[j] for j in group], spend)
+        if total == 0:
+            return 0
+    return total
+
+
+def _enumerate_connected(rows, rhs, lo, hi, spend: Spend) -> int:
     """#{y in Z^e : lo <= y <= hi, a_i . y <= rhs_i}: depth first, the last coordinate by its range."""
     e = len(lo)
     m = len(rows)
@@ -199,8 +236,6 @@ def _enumerate(rows, rhs, lo, hi, spend: Spend) -> int:
             total += walk(k + 1, inner)
         return total
 
-    if e == 0:
-        return 1 if all(r >= 0 for r in rhs) else 0
     return walk(0, list(rhs))
 
 

@@ -358,9 +358,9 @@ def count(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False)
         return _direct(poly, fr, t, interior, spend)
     known = _QUASI.get(poly)
     if known is None:
-        samples = [s for r in range(D) for s in _samples(r, D, e, e >= 3)]
-        reach = max(abs(s) for s in samples)
-        if t <= reach or _cost(fr, t) <= sum(_cost(fr, s) for s in samples):
+        # interpolation needs D (e + 1) counts at dilates up to about D (e + 1) / 2 + D
+        reach = D * (e + 1) // 2 + D
+        if t <= reach or _cost(fr, t) <= D * (e + 1) * _cost(fr, reach):
             return _direct(poly, fr, t, interior, spend)
         known = constituents(poly, spend)
     if interior:

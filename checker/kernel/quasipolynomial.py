@@ -378,7 +378,7 @@ def _fourier(node, var, ev):
 def _parts_of(node, arg, var, ev):
     parts = _constant(arg, var, ev, f"the list of parts of {node.name}")
     try:
-        return check_parts(parts, node.name)
+        return check_parts(parts, node.name, allow_empty=node.name == "partitions")
     except CertificateError as e:
         raise e.at(arg)
 
@@ -396,6 +396,8 @@ def _partitions(node, var, ev):
     period = lcm(*parts)
     # the poles of 1/prod(1 - x^a_i) are roots of unity of order dividing some a_i;
     # n -> a n + c raises each to the power a
+    if not parts:
+        return Shape(0, 1, threshold)     # p_{}(m) = [m = 0]: the zero function once a n + c >= 1
     orders = frozenset(p // gcd(p, a.numerator) for p in parts)
     return Shape(len(parts) - 1, period // gcd(period, a.numerator), threshold, orders)
 

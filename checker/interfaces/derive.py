@@ -124,24 +124,6 @@ def derive_partitions(parts, var: str = "n", label: str = "derived") -> str:
     return "\n".join(out) + "\n"
 
 
-def _interpolate(points):
-    """Coefficients of the polynomial through (x_i, y_i), exactly (Lagrange)."""
-    n = len(points)
-    coeffs = [Fraction(0)] * n
-    for i, (xi, yi) in enumerate(points):
-        basis = [Fraction(1)]
-        denom = Fraction(1)
-        for j, (xj, _) in enumerate(points):
-            if j != i:
-                basis = [Fraction(0)] + basis
-                for k in range(len(basis) - 1):
-                    basis[k] -= xj * basis[k + 1]
-                denom *= xi - xj
-        for k in range(n):
-            coeffs[k] += yi * basis[k] / denom
-    return coeffs
-
-
 def _smallest_period(table) -> int:
     """The least p dividing len(table) with table[r] = table[r mod p] for every r."""
     n = len(table)

@@ -27,7 +27,6 @@ Fraction(10, 1)
 from __future__ import annotations
 
 from fractions import Fraction
-from itertools import combinations
 from math import floor as _floor, gcd
 
 from .elementary import as_integer, as_rational

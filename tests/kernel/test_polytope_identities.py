@@ -2,7 +2,6 @@
 from __future__ import annotations
 
 import itertools
-from math import comb
 from pathlib import Path
 
 import pytest

@@ -233,38 +233,33 @@ def derive_partitions(parts, var: str = "n", label: str = "derived") -> str:
     return "\n".join(out) + "\n"
 
 
-def _interpolate(points):
-    """Coefficients of the polynomial through (x_i, y_i), exactly (Lagrange)."""
-    n = len(points)
-    coeffs = [Fraction(0)] * n
-    for i, (xi, yi) in enumerate(points):
-        basis = [Fraction(1)]
-        denom = Fraction(1)
-        for j, (xj, _) in enumerate(points):
-            if j != i:
-                basis = [Fraction(0)] + basis
-                for k in range(len(basis) - 1):
-                    basis[k] -= xj * basis[k + 1]
-                denom *= xi - xj
-        for k in range(n):
-            coeffs[k] += yi * basis[k] / denom
-    return coeffs
+def _smallest_period(table) -> int:
+    """The least p dividing len(table) with table[r] = table[r mod p] for every r."""
+    n = len(table)
+    for p in range(1, n + 1):
+        if n % p == 0 and all(table[r] == table[r % p] for r in range(n)):
+            return p
+    return n
 
 
-def derive_ehrhart(call_text: str, count, degree: int, period: int, var: str = "t",
-                   label: str = "derived") -> str:
-    """Constituents of an Ehrhart quasi-polynomial from exact counts at t = 0 .. (D+1)L - 1."""
-    rows = []
-    for r in range(period):
-        pts = [(Fraction(r + i * period), count(r + i * period)) for i in range(degree + 1)]
-        rows.append(_interpolate(pts))
-    table = "[" + ", ".join(_list_text(row) for row in rows) + "]"
-    return "\n".join([
-        f'title "Ehrhart quasi-polynomial of {call_text}"',
-        "# written by quasicert derive; check it with: quasicert check FILE",
-        f"# degree {degree}, period {period}: one constituent polynomial per residue of {var} mod {period}",
-        f"identity {label}: for {var} >= 0:",
-        f"  {call_text.replace('(' + var + ',', '(' + var + ',', 1)} = constituents({var}, {table})"]) + "\n"
+def derive_ehrhart(call_text: str, poly, table, var: str = "t", label: str = "derived") -> str:
+    """The Ehrhart quasi-polynomial of a call as an identity by constituents, its period collapse noted."""
+    D = poly.denominator
+    period = _smallest_period(table)
+    table = table[:period]
+    lines = [f'title "Ehrhart quasi-polynomial of {call_text}"',
+             "# written by quasicert derive; check it with: quasicert check FILE"]
+    if poly.empty:
+        lines.append("# the polytope is empty: no lattice points in any dilate, t = 0 included")
+    else:
+        lines.append(f"# dimension {poly.dimension}, vertex denominator {D}: the period divides {D} (Ehrhart)")
+        if period < D:
+            lines.append(f"# period collapse: the constituents repeat with period {period}, not {D}")
+        lines.append(f"# one constituent polynomial (constant term first) per residue of {var} mod {period}")
+    text = "[" + ", ".join(_list_text(row) for row in table) + "]"
+    lines += [f"identity {label}: for {var} >= 0, period {period}, degree {max(len(r) for r in table) - 1}:",
+              f"  {call_text} = constituents({var}, {text})"]
+    return "\n".join(lines) + "\n"
 
 
 def derive_frobenius(parts, label: str = "derived") -> str:
@@ -341,7 +336,8 @@ def derive(text: str) -> str:
         if not (isinstance(h, Fraction) and isinstance(k, Fraction) and h.denominator == 1 == k.denominator):
             raise DomainError("dedekind(h, k) needs integers h and k").at(expr)
         return derive_dedekind(h.numerator, k.numerator)
-    if expr.name in ("partitions", "lattice_points", "lattice_points_in") and len(expr.args) == 2:
+    lattice = expr.name in ("lattice_points", "lattice_points_in") and len(expr.args) in (2, 3)
+    if (expr.name == "partitions" and len(expr.args) == 2) or lattice:
         var = expr.args[0]
         if not isinstance(var, ex.Name):
             raise DomainError(f"give {expr.name} a variable as its first argument, e.g. "
@@ -349,16 +345,17 @@ def derive(text: str) -> str:
         arg = ev.value(expr.args[1])
         if expr.name == "partitions":
             return derive_partitions(arg, var.name)
-        from ..mathematics.polytopes import (check_inequalities, check_points, inequality_vertex_denominator,
-                                lattice_points, lattice_points_inequalities, vertex_denominator)
-        call_text = text.strip()
+        from ..mathematics.ehrhart import budget, constituents
+        from ..mathematics.polytopes import polytope_of_inequalities, polytope_of_vertices
         if expr.name == "lattice_points":
-            pts = check_points(arg)
-            return derive_ehrhart(call_text, lambda t: lattice_points(t, arg), 2, vertex_denominator(pts),
-                                  var.name)
-        dim, rows = check_inequalities(arg)
-        return derive_ehrhart(call_text, lambda t: lattice_points_inequalities(t, arg), dim,
-                              inequality_vertex_denominator(rows), var.name)
+            if len(expr.args) != 2:
+                raise DomainError("lattice_points takes two arguments").at(expr)
+            poly = polytope_of_vertices(arg, ev.limits)
+        else:
+            eqs = ev.value(expr.args[2]) if len(expr.args) == 3 else ()
+            poly = polytope_of_inequalities(arg, eqs, ev.limits)
+        table = constituents(poly, budget(ev.limits, "the Ehrhart quasi-polynomial"))
+        return derive_ehrhart(text.strip(), poly, table, var.name)
     if expr.name == "fourier_dedekind" and len(expr.args) == 3:
         n, parts, b = [ev.value(a) for a in expr.args]
         if not (isinstance(n, Fraction) and isinstance(b, Fraction) and isinstance(parts, tuple)

@@ -30,7 +30,10 @@ from ..mathematics.residues import jacobi as _jacobi, reciprocal_mod as _recipro
 from ..mathematics.frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from ..foundation.limits import Limits
 from ..mathematics.periodic import constituents, periodic
-from ..mathematics.polytopes import interior_lattice_points, lattice_points, lattice_points_inequalities
+from ..mathematics.ehrhart import budget as _budget, hstar as _hstar
+from ..mathematics.elementary import as_integer as _as_integer
+from ..mathematics.polytopes import (interior_lattice_points, lattice_points, lattice_points_inequalities,
+                                     polytope_of_inequalities, polytope_of_vertices)
 from ..mathematics.partitions import (partitions, partitions_extended, polynomial_part as _polynomial_part,
                          quasipolynomial_cost, table_cost, check_parts)
 
@@ -41,7 +44,7 @@ __all__ = [
     "dedekind", "dedekind_rademacher", "generalized_dedekind", "fourier_dedekind",
     "partitions", "partitions_extended", "partitions_polynomial_part",
     "frobenius", "nonrepresentable", "staircase", "periodic", "constituents",
-    "lattice_points", "lattice_points_in", "interior_lattice_points",
+    "lattice_points", "lattice_points_in", "interior_lattice_points", "hstar", "hstar_in",
 ]
 
 
@@ -68,9 +71,30 @@ LITERATURE_NAMES = {
 }
 
 
-def lattice_points_in(t, rows) -> Fraction:
-    """#(tP intersected with Z^d) for P = {x : a.x <= b} given as rows [a1, ..., ad, b]."""
-    return lattice_points_inequalities(t, rows)
+def lattice_points_in(t, rows, equations=(), limits=None) -> Fraction:
+    """#(tP intersected with Z^d) for P = {x : a.x <= b, a'.x = b'} given as rows [a1, ..., ad, b].
+
+    The empty P has 0 points in every dilate (t = 0 too); an unbounded P is refused.
+    """
+    return lattice_points_inequalities(t, rows, equations, limits)
+
+
+def _hstar_coefficient(j, poly, limits) -> Fraction:
+    j = _as_integer(j, "the index of an h*-coefficient")
+    if j < 0:
+        raise DomainError(f"the index of an h*-coefficient must be >= 0, not {j}")
+    coefficients = _hstar(poly, _budget(limits, "the Ehrhart quasi-polynomial behind h*"))
+    return Fraction(coefficients[j] if j < len(coefficients) else 0)
+
+
+def hstar(j, points, limits=None) -> Fraction:
+    """h*_j of the convex hull P of rational points: sum_t L_P(t) z^t = h*(z)/(1 - z^D)^(dim P + 1)."""
+    return _hstar_coefficient(j, polytope_of_vertices(points, limits, "hstar"), limits)
+
+
+def hstar_in(j, rows, equations=(), limits=None) -> Fraction:
+    """h*_j of P = {x : a.x <= b, a'.x = b'}, as `hstar`."""
+    return _hstar_coefficient(j, polytope_of_inequalities(rows, equations, limits, "hstar_in"), limits)
 
 
 def round(x) -> Fraction:      # noqa: A001 - the language's name; Python's round is not used here
@@ -148,6 +172,7 @@ class FunctionSpec:
     arity: tuple
     arithmetic: bool = False               # normal forms evaluate it on sight
     cost: Callable[..., Cost] = lambda *args: None
+    limited: bool = False                  # impl takes limits=... and spends within them itself
 
     def check_arity(self, count: int) -> None:
         low, high = self.arity
@@ -165,6 +190,8 @@ class FunctionSpec:
         if need:
             limit, amount, what = need
             limits.require(limit, amount, what)
+        if self.limited:
+            return self.impl(*args, limits=limits)
         return self.impl(*args)
 
 
@@ -179,6 +206,8 @@ def _list_len(x) -> int:
 
 
 def _cost_bernoulli(n, x=None):
+    if x is None and isinstance(n, Fraction) and n.denominator == 1 and n > 1 and n.numerator % 2:
+        return None      # B_n = 0 for odd n > 1: no work at any size
     return ("bernoulli_index", _int_or_zero(n), f"a Bernoulli number of index {_int_or_zero(n)}")
 
 
@@ -281,18 +310,9 @@ def _cost_lcm(*args):
     return ("integer_bits", bits, "the least common multiple")
 
 
-def _cost_polytope(t, rows):
-    if not isinstance(rows, tuple) or not rows or not isinstance(rows[0], tuple):
-        return None
-    d = len(rows[0]) - 1
-    t = _int_or_zero(t)
-    # slices: about t^(d-2) polygons, each a handful of floor sums
-    return ("terms", (t + 1) ** max(d - 2, 0) * len(rows) ** 2, f"slicing a {d}-dimensional polytope at t = {t}")
-
-
-def _spec(name, signature, definition, impl, arity, arithmetic=False, cost=None):
+def _spec(name, signature, definition, impl, arity, arithmetic=False, cost=None, limited=False):
     return FunctionSpec(name, signature, definition, impl, arity, arithmetic,
-                        cost or (lambda *args: None))
+                        cost or (lambda *args: None), limited)
 
 
 REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
@@ -343,13 +363,19 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("constituents", "n, [[c00, c01, ...], ...]",
           "sum_j c_(r,j) n^j for r = n mod L: a quasi-polynomial by its constituents",
           constituents, (2, 2), True),
-    _spec("lattice_points", "t, [[x1, y1], [x2, y2], ...]",
-          "lattice points in t times the convex hull of rational points in the plane",
-          lattice_points, (2, 2)),
-    _spec("interior_lattice_points", "t, [[x1, y1], [x2, y2], ...]",
-          "lattice points strictly inside t times the convex hull of rational points in the plane",
-          interior_lattice_points, (2, 2)),
-    _spec("lattice_points_in", "t, [[a1, ..., ad, b], ...]",
-          "lattice points in t P for the polytope P = {x : a.x <= b}, d = 2, 3 or 4",
-          lattice_points_in, (2, 2), False, _cost_polytope),
+    _spec("lattice_points", "t, [[x1, ..., xd], ...]",
+          "lattice points in t times the convex hull of rational points (any dimension d)",
+          lattice_points, (2, 2), limited=True),
+    _spec("interior_lattice_points", "t, [[x1, ..., xd], ...]",
+          "lattice points in the interior (in R^d) of t times the convex hull of rational points",
+          interior_lattice_points, (2, 2), limited=True),
+    _spec("lattice_points_in", "t, [[a1, ..., ad, b], ...] [, [[e1, ..., ed, f], ...]]",
+          "lattice points in t P for P = {x : a.x <= b, e.x = f} (bounded; 0 when P is empty)",
+          lattice_points_in, (2, 3), limited=True),
+    _spec("hstar", "j, [[x1, ..., xd], ...]",
+          "h*_j of the convex hull P: sum_t L_P(t) z^t = h*(z)/(1 - z^D)^(dim P + 1)",
+          hstar, (2, 2), limited=True),
+    _spec("hstar_in", "j, [[a1, ..., ad, b], ...] [, [[e1, ..., ed, f], ...]]",
+          "h*_j of P = {x : a.x <= b, e.x = f}, as hstar",
+          hstar_in, (2, 3), limited=True),
 ]}

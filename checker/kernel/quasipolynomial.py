@@ -40,8 +40,7 @@ from ..language import expressions as ex
 from ..foundation.errors import CertificateError, DomainError
 from ..foundation.limits import check_time
 from ..mathematics.partitions import check_parts
-from ..mathematics.polytopes import (check_inequalities, check_points, inequality_vertex_denominator,
-                                     vertex_denominator)
+from ..mathematics.polytopes import polytope_of_inequalities, polytope_of_vertices
 from .evaluation import binding
 from .functions import REGISTRY
 
@@ -440,7 +439,7 @@ def _fourier(node, var, ev):
 def _parts_of(node, arg, var, ev):
     parts = _constant(arg, var, ev, f"the list of parts of {node.name}")
     try:
-        return check_parts(parts, node.name)
+        return check_parts(parts, node.name, allow_empty=node.name == "partitions")
     except CertificateError as e:
         raise e.at(arg)
 
@@ -458,6 +457,8 @@ def _partitions(node, var, ev):
     period = lcm(*parts)
     # the poles of 1/prod(1 - x^a_i) are roots of unity of order dividing some a_i;
     # n -> a n + c raises each to the power a
+    if not parts:
+        return Shape(0, 1, threshold)     # p_{}(m) = [m = 0]: the zero function once a n + c >= 1
     orders = frozenset(p // gcd(p, a.numerator) for p in parts)
     return Shape(len(parts) - 1, period // gcd(period, a.numerator), threshold, orders)
 
@@ -514,29 +515,44 @@ def _constituents(node, var, ev):
     return Shape(max(len(r) for r in table) - 1, period)
 
 
-def _lattice(node, var, ev):
-    pts = _constant(node.args[1], var, ev, "the vertices of lattice_points")
-    try:
-        pts = check_points(pts)
-    except CertificateError as e:
-        raise e.at(node.args[1])
+def _dilation_is(node, var, ev):
     p = polynomial(node.args[0], var, ev)
     if p != [Fraction(0), Fraction(1)]:
         _refuse(node.args[0], f"the dilation factor must be {var} itself")
-    # the interior of 0 P is empty, so its count is a quasi-polynomial from t = 1 on
-    return Shape(2, vertex_denominator(pts), 1 if node.name == "interior_lattice_points" else 0)
+
+
+def _lattice(node, var, ev):
+    """L_P(t) has degree dim P and period dividing the vertex denominator D (Ehrhart 1962), from t = 0 on;
+    the interior count (in R^d) the same from t = 1 on when P is full-dimensional, and 0 otherwise."""
+    pts = _constant(node.args[1], var, ev, f"the vertices of {node.name}")
+    try:
+        poly = polytope_of_vertices(pts, ev.limits, node.name)
+    except CertificateError as e:
+        raise e.at(node.args[1])
+    _dilation_is(node, var, ev)
+    if node.name == "interior_lattice_points":
+        if poly.dimension < poly.ambient:
+            return Shape(0, 1, 0)            # no interior in R^d: 0 in every dilate
+        return Shape(poly.dimension, poly.denominator, 1)
+    return Shape(poly.dimension, poly.denominator, 0)
 
 
 def _lattice_in(node, var, ev):
-    rows = _constant(node.args[1], var, ev, "the inequalities of lattice_points_in")
+    """As `_lattice`; the empty polytope has the zero function (0 points in every dilate, t = 0 too)."""
+    rows = _constant(node.args[1], var, ev, f"the inequalities of {node.name}")
+    eqs = _constant(node.args[2], var, ev, f"the equations of {node.name}") if len(node.args) > 2 else ()
     try:
-        dim, rows = check_inequalities(rows)
+        poly = polytope_of_inequalities(rows, eqs, ev.limits, node.name)
     except CertificateError as e:
         raise e.at(node.args[1])
-    p = polynomial(node.args[0], var, ev)
-    if p != [Fraction(0), Fraction(1)]:
-        _refuse(node.args[0], f"the dilation factor must be {var} itself")
-    return Shape(dim, inequality_vertex_denominator(rows), 0)
+    _dilation_is(node, var, ev)
+    if poly.empty:
+        return Shape(0, 1, 0)
+    return Shape(poly.dimension, poly.denominator, 0)
+
+
+def _hstar_coefficient(node, var, ev):
+    _refuse(node, f"quasicert does not know {node.name} with {var} in its arguments to be a quasi-polynomial in {var}")
 
 
 _CALL_RULES = {
@@ -549,6 +565,7 @@ _CALL_RULES = {
     "bernoulli": _bernoulli, "periodic_bernoulli": _periodic_bernoulli, "binomial": _binomial,
     "periodic": _periodic, "constituents": _constituents,
     "lattice_points": _lattice, "lattice_points_in": _lattice_in, "interior_lattice_points": _lattice,
+    "hstar": _hstar_coefficient, "hstar_in": _hstar_coefficient,
 }
 
 

@@ -79,6 +79,8 @@ def bernoulli(n, x=None) -> Fraction:
     n = as_integer(n, "the index of a Bernoulli number")
     if n < 0:
         raise DomainError(f"the index of a Bernoulli number must be >= 0, not {n}")
+    if n > 1 and n % 2:
+        return Fraction(0)      # B_n = 0 for odd n > 1, at any size (from the odd function x/(e^x - 1) + x/2)
     _extend_cache(n)
     return _cache[n]
 

@@ -49,20 +49,26 @@ __all__ = ["partitions", "partitions_extended", "partitions_by_table",
            "check_parts"]
 
 
-def check_parts(parts, what: str = "partitions") -> tuple[int, ...]:
+def check_parts(parts, what: str = "partitions", allow_empty: bool = False) -> tuple[int, ...]:
     if not isinstance(parts, (list, tuple)):
         raise DomainError(f"the second argument of {what} must be a list of positive integers")
-    if not parts:
+    if not parts and not allow_empty:
         raise DomainError(f"the list of parts in {what} must not be empty")
     return tuple(as_positive(a, f"each part in {what}") for a in parts)
 
 
 def partitions(n, parts) -> Fraction:
-    """p_A(n), choosing the cheaper of the table and the quasi-polynomial."""
+    """p_A(n), choosing the cheaper of the table and the quasi-polynomial.
+
+    With no parts, p_A(n) is 1 at n = 0 and 0 elsewhere: the generating function
+    is the empty product 1 (Stanley, *Enumerative Combinatorics I*, 1.8).
+    """
     n = as_integer(n, "the first argument of partitions")
-    parts = check_parts(parts)
+    parts = check_parts(parts, allow_empty=True)
     if n < 0:
         return Fraction(0)
+    if not parts:
+        return Fraction(int(n == 0))
     if table_cost(n, parts) <= quasipolynomial_cost(parts):
         return partitions_by_table(n, parts)
     return partitions_by_quasipolynomial(n, parts)

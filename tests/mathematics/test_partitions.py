@@ -118,6 +118,11 @@ def test_bad_parts():
     with pytest.raises(DomainError) as info:
         partitions(5, [2, 0])
     assert info.value.message == "each part in partitions must be a positive integer, not 0"
-    with pytest.raises(DomainError):
-        partitions(5, [])
     exact(partitions(-3, [1, 2]), Fraction(0))
+
+
+def test_no_parts_is_the_empty_product():
+    # Stanley EC1, 1.8: prod over no parts of 1/(1 - x^a) is 1, so p_{}(n) = [n = 0]
+    exact(partitions(0, []), Fraction(1))
+    exact(partitions(5, []), Fraction(0))
+    exact(partitions(-1, []), Fraction(0))

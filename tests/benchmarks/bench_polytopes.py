@@ -1,0 +1,125 @@
+"""Lattice points in polytopes of any dimension: times, and ratios against brute force in the same run.
+
+Run on demand:  python tests/benchmarks/bench_polytopes.py
+
+Each case is timed cold (the memo of analysed polytopes and quasi-polynomials cleared first). The
+reference is plain enumeration of a box at a small dilate, timed here, so the ratio says how much
+the full Ehrhart quasi-polynomial (every t) costs against counting one small dilate naively.
+"""
+from __future__ import annotations
+
+import itertools
+import os
+import sys
+import time
+from fractions import Fraction
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
+
+from checker.mathematics import ehrhart, polytopes  # noqa: E402
+from checker.mathematics.ehrhart import constituents, count  # noqa: E402
+from checker.mathematics.polytopes import polytope_of_inequalities, polytope_of_vertices  # noqa: E402
+
+
+def cold(fn):
+    ehrhart._QUASI.clear()
+    ehrhart._FRAMES.clear()
+    polytopes._POLYTOPES.clear()
+    t = time.perf_counter()
+    out = fn()
+    return time.perf_counter() - t, out
+
+
+def brute(rows, eqs, t, lo, hi):
+    d = len(rows[0]) - 1
+    n = 0
+    for x in itertools.product(range(lo, hi + 1), repeat=d):
+        if all(sum(a * b for a, b in zip(r[:d], x)) <= t * r[d] for r in rows) and \
+                all(sum(a * b for a, b in zip(r[:d], x)) == t * r[d] for r in eqs):
+            n += 1
+    return n
+
+
+def report(name, goal, seconds, ref_name, ref_seconds, detail=""):
+    print(f"  {name}: {seconds * 1e3:.1f} ms (goal < {goal}); {ref_name}: {ref_seconds * 1e3:.1f} ms; "
+          f"ratio {seconds / ref_seconds:.2f}x {detail}")
+
+
+def unit_cube(d):
+    return [[int(j == i) for j in range(d)] + [1] for i in range(d)] + \
+           [[-int(j == i) for j in range(d)] + [0] for i in range(d)]
+
+
+def simplex(d):
+    return [[-int(j == i) for j in range(d)] + [0] for i in range(d)] + [[1] * d + [1]]
+
+
+def birkhoff(n):
+    ineqs = [[-int(k == c) for k in range(n * n)] + [0] for c in range(n * n)]
+    eqs = [[int(k // n == i) for k in range(n * n)] + [1] for i in range(n)]
+    eqs += [[int(k % n == j) for k in range(n * n)] + [1] for j in range(n)]
+    return ineqs, eqs
+
+
+def main():
+    print("large dilates (Ehrhart interpolation)")
+    for name, rows in (("4-cube", unit_cube(4)), ("4-simplex", simplex(4))):
+        seconds, value = cold(lambda: count(polytope_of_inequalities(rows), 10**30))
+        ref, _ = cold(lambda: brute(rows, [], 6, 0, 6))
+        report(f"{name} at t = 10^30", "100 ms", seconds, "brute force at t = 6", ref, f"({len(str(value))} digits)")
+    seconds, _ = cold(lambda: count(polytope_of_inequalities(unit_cube(4)), 1000))
+    ref, _ = cold(lambda: brute(unit_cube(4), [], 6, 0, 6))
+    report("4-cube at t = 1000", "5 s", seconds, "brute force at t = 6", ref)
+
+    print("Ehrhart quasi-polynomials (every constituent)")
+    d = 6
+    cross = [[s * int(j == i) for j in range(d)] for i in range(d) for s in (1, -1)]
+    facets = [list(signs) + [1] for signs in itertools.product((1, -1), repeat=d)]
+    seconds, _ = cold(lambda: constituents(polytope_of_vertices(cross)))
+    ref, _ = cold(lambda: brute(facets, [], 2, -2, 2))
+    report("6-dimensional cross-polytope, by its 12 vertices", "5 s", seconds, "brute force at t = 2", ref)
+
+    ineqs, eqs = birkhoff(4)
+    seconds, table = cold(lambda: constituents(polytope_of_inequalities(ineqs, eqs)))
+
+    def brute_h4(t):
+        n = 0
+        for corner in itertools.product(range(t + 1), repeat=9):
+            rows = [corner[3 * i:3 * i + 3] for i in range(3)]
+            col = [t - sum(r) for r in rows]
+            row = [t - sum(rows[i][j] for i in range(3)) for j in range(3)]
+            last = t - sum(row)
+            n += min(col + row + [last]) >= 0 and last == t - sum(col)
+        return n
+    ref, _ = cold(lambda: brute_h4(3))
+    report("Birkhoff polytope B_4 (dimension 9 in R^16)", "5 s", seconds, "brute-force H_4(3) over 3 x 3 corners",
+           ref)
+
+    gens = [(1, 0, 0), (0, 1, 0), (0, 0, 1), (1, 1, 1), (1, -1, 0), (0, 1, -1), (2, 1, -1)]
+    points = sorted({tuple(sum(c * g[k] for c, g in zip(cs, gens)) for k in range(3))
+                     for cs in itertools.product((0, 1), repeat=len(gens))})
+    seconds, table = cold(lambda: constituents(polytope_of_vertices(points)))
+    poly = polytope_of_vertices(points)
+    ref, _ = cold(lambda: brute(list(poly.inequalities), [], 1, -3, 6))
+    report(f"3-dimensional zonotope of 7 generators ({len(poly.vertices)} vertices)", "5 s", seconds,
+           "brute force at t = 1", ref)
+
+    # a 4-dimensional tensor-product-like polytope: the product of two rational triangles
+    tri = [(0, 0), (Fraction(3, 2), 0), (0, Fraction(4, 3))]
+    prod = [list(a) + list(b) for a in tri for b in tri]
+    seconds, table = cold(lambda: constituents(polytope_of_vertices(prod)))
+    poly = polytope_of_vertices(prod)
+    ref, _ = cold(lambda: brute(list(poly.inequalities), [], 3, 0, 4))
+    report(f"product of two rational triangles (dimension 4, period {len(table)})", "5 s", seconds,
+           "brute force at t = 3", ref)
+    rational4 = [[0, 0, 0, 0], [Fraction(1, 2), 0, 0, 0], [0, Fraction(1, 2), 0, 0], [0, 0, 1, 0],
+                 [0, 0, 0, Fraction(3, 2)], [Fraction(1, 2), Fraction(1, 2), 1, Fraction(3, 2)]]
+    seconds, table = cold(lambda: constituents(polytope_of_vertices(rational4)))
+    poly = polytope_of_vertices(rational4)
+    ref, _ = cold(lambda: brute(list(poly.inequalities), [], 4, 0, 6))
+    report(f"a rational 4-polytope by vertices (denominator {poly.denominator}, period {len(table)})", "5 s",
+           seconds, "brute force at t = 4", ref)
+
+
+if __name__ == "__main__":
+    main()

@@ -27,10 +27,11 @@ __all__ = ["parse_expression", "parse_certificate", "grammar_text", "grammar_tab
 
 # Lark is imported only when a text needs it: most texts are read by the plain
 # reader, whose tables are kept on disk beside Lark's own cache of the grammar.
-_TABLES_VERSION = "1"
+_TABLES_VERSION = "1+modulus"
 _FAST_RULES = {"expr", "sum", "product", "unary", "power", "atom", "call", "list", "finite_sum",
                "arguments", "title", "source", "let", "claim", "relation", "chain", "step", "rule",
-               "label", "__sum_star", "__product_star", "__arguments_star", "__chain_plus", "__step_star"}
+               "label", "modulus", "__sum_star", "__product_star", "__arguments_star", "__chain_plus",
+               "__step_star"}
 _FAST_STATEMENTS = ("title", "source", "let", "claim", "chain")
 
 
@@ -131,7 +132,7 @@ def _tables_from_lark(lark) -> dict:
         return None
 
     keywords = {name: literal(name, None, 0) for name in _FAST_STATEMENTS}
-    keywords.update(mod=literal("claim", "congruence", 4), by=literal("step", None, 2),
+    keywords.update(mod=literal("modulus", None, 0), by=literal("step", None, 2),
                     use_claim=literal("rule", "use_claim", 0),
                     relations=[e[0] for e in rules.get(("relation", None), [])])
     return {"digest": _digest(), "shape": sorted(shape), "keywords": keywords,

@@ -55,14 +55,17 @@ SHAPE = [
     'call: NAME LPAR arguments RPAR !',
     'chain: KW expr __chain_plus !',
     'chain: KW label expr __chain_plus !',
-    'claim: KW expr CONGRUENT expr KW expr -> congruence !',
+    'claim: KW expr CONGRUENT expr modulus -> congruence !',
     'claim: KW expr relation expr !',
-    'claim: KW label expr CONGRUENT expr KW expr -> congruence !',
+    'claim: KW label expr CONGRUENT expr modulus -> congruence !',
     'claim: KW label expr relation expr !',
     'expr: sum ?',
-    'finite_sum: KW LPAR NAME EQUALS expr __ANON expr COMMA expr RPAR !',
+    'finite_sum: KW LPAR NAME KW expr KW expr COLON expr RPAR !',
+    'finite_sum: former_sum_start expr __ANON expr COMMA expr RPAR -> former_sum !',
     'label: NAME COLON',
     'let: KW NAME EQUALS expr !',
+    'modulus: KW expr',
+    'modulus: OPEN_MOD expr RPAR',
     'list: LSQB RSQB !',
     'list: LSQB arguments RSQB !',
     'power: atom ?',
@@ -113,7 +116,7 @@ class PlainReader:
     """Reads plain certificates and expressions; `tables` come from ``parsing.grammar_tables``."""
 
     def __init__(self, tables: dict):
-        self.enabled = tables["shape"] == SHAPE
+        self.enabled = sorted(tables["shape"]) == sorted(SHAPE)
         terminals = tables["terminals"]            # [name, regex, literal or None], in Lark's order
         self.ignore = frozenset(tables["ignore"])
         embedded = tables["embedded"]               # literal string terminals a regex terminal covers

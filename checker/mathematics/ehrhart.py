@@ -36,8 +36,8 @@ True
 >>> triangle = describe([(-1, 0, 0, 0), (0, -1, 0, 0), (0, 0, -1, 0)], [(1, 1, 1, 1)])
 >>> count(triangle, 10), constituents(triangle)
 (66, ((Fraction(1, 1), Fraction(3, 2), Fraction(1, 2)),))
->>> hstar(cube)      # the Eulerian numbers 1, 4, 1 (Stanley EC1, 4.6.15)
-[1, 4, 1]
+>>> hstar(cube)      # the Eulerian numbers 1, 4, 1 (Stanley EC1, 4.6.15); length D (e + 1) = 4
+[1, 4, 1, 0]
 """
 from __future__ import annotations
 

@@ -36,12 +36,13 @@ def test_lemma_library_then_its_user_replays_the_library_once(replays):
 
 
 def test_user_then_library_gives_the_same_report_without_a_second_replay(replays):
-    user = checking.check_file(_bundled("ossendrack-generator.qcert"))
-    lemmas = checking.check_file(_bundled("dedekind-lemmas.qcert"))
+    # one seed, so that the second opinion's notes (its instances) are the same in both reports
+    user = checking.check_file(_bundled("ossendrack-generator.qcert"), seed=3)
+    lemmas = checking.check_file(_bundled("dedekind-lemmas.qcert"), seed=3)
     assert user.ok and lemmas.ok
     assert replays.count("dedekind-lemmas.qcert") == 1
     library._VERIFIED.clear()
-    fresh = checking.check_file(_bundled("dedekind-lemmas.qcert"))
+    fresh = checking.check_file(_bundled("dedekind-lemmas.qcert"), seed=3)
     assert (fresh.checked, fresh.title, fresh.notes, fresh.name) == \
            (lemmas.checked, lemmas.title, lemmas.notes, lemmas.name)
 

@@ -1,6 +1,5 @@
 """Hostile and malformed input: every case ends in a verdict, never a traceback or a hang."""
 import io
-import time
 from pathlib import Path
 
 import pytest
@@ -8,7 +7,11 @@ from hypothesis import given, settings, strategies as st
 
 from checker import check_file, check_text
 from checker.interfaces.cli import main
-from checker.foundation.limits import Limits
+from checker.foundation.limits import DEFAULT_LIMITS, Limits
+
+# no wall-clock assertions (timing belongs in tests/benchmarks/bench_hostile.py): the checker's own
+# `seconds` limit bounds every input here, and an input that reaches it fails its expected verdict
+BOUNDED = DEFAULT_LIMITS.with_overrides({"seconds": 120})
 
 KINDS = {"failed", "error", "syntax error", "limit", "unreadable", "empty"}   # never "checker bug"
 
@@ -56,9 +59,7 @@ TOKENS = ["claim", "chain", "let", "title", "source", "=", "==", "mod", "by", "r
 @settings(max_examples=400, deadline=None)
 @given(st.lists(st.sampled_from(TOKENS), max_size=40))
 def test_grammar_aware_token_soup(tokens):
-    start = time.perf_counter()
-    verdict(check_text(" ".join(tokens)))
-    assert time.perf_counter() - start < 20
+    verdict(check_text(" ".join(tokens), limits=BOUNDED))
 
 
 def _lines(n, line):
@@ -99,15 +100,12 @@ HOSTILE = [
 
 @pytest.mark.parametrize("name, text, kind", HOSTILE, ids=[h[0] for h in HOSTILE])
 def test_hostile_inputs(name, text, kind):
-    start = time.perf_counter()
-    report = verdict(check_text(text))
-    elapsed = time.perf_counter() - start
+    report = verdict(check_text(text, limits=BOUNDED))
     if kind is None:
         assert report.ok, report.failure
     else:
         assert not report.ok and report.failure.kind == kind, report.failure
         assert report.failure.line is not None
-    assert elapsed < 30
 
 
 def test_many_megabytes_file(tmp_path):
@@ -255,6 +253,4 @@ def _lemma_text(draw):
 @settings(max_examples=300, deadline=None)
 @given(_lemma_text())
 def test_random_lemmas_reach_a_verdict(text):
-    start = time.perf_counter()
-    verdict(check_text(text))
-    assert time.perf_counter() - start < 20
+    verdict(check_text(text, limits=BOUNDED))

@@ -76,3 +76,17 @@ def reference_functions():
     finally:
         functions.REGISTRY.clear()
         functions.REGISTRY.update(saved)
+
+
+def fourier_dedekind_by_roots_of_unity(n, parts, b, dps=50):
+    """(1/b) sum_{j=1}^{b-1} xi^(jn) / prod (1 - xi^(j a)), xi = exp(2 pi i/b), in mpmath at `dps`
+    digits (a complex number): the definition, independent of the kernel's exact tables."""
+    import mpmath
+    with mpmath.workdps(dps):
+        total = mpmath.mpc(0)
+        for j in range(1, b):
+            term = mpmath.expjpi(mpmath.mpf(2 * j * n) / b)
+            for a in parts:
+                term /= 1 - mpmath.expjpi(mpmath.mpf(2 * j * a) / b)
+            total += term
+        return total / b

@@ -25,10 +25,10 @@ from __future__ import annotations
 
 from fractions import Fraction
 
-__all__ = ["hermite_columns", "kernel_basis", "lll_reduce", "determinant"]
+__all__ = ["hermite_columns", "kernel_basis", "lll_reduce", "determinant", "extended_gcd"]
 
 
-def _ext_gcd(a: int, b: int):
+def extended_gcd(a: int, b: int):
     """(g, u, v) with a u + b v = g = gcd(a, b) >= 0."""
     old_r, r, old_s, s, old_t, t = a, b, 1, 0, 0, 1
     while r:
@@ -62,7 +62,7 @@ def hermite_columns(C):
             x, y = work[i][i], work[i][k]
             if y == 0:
                 continue
-            g, u, v = _ext_gcd(x, y)
+            g, u, v = extended_gcd(x, y)
             # [x y] [[u, -y/g], [v, x/g]] = [g 0]; determinant u x/g + v y/g = 1
             column_op(i, k, u, v, -y // g, x // g)
         if work[i][i] == 0:

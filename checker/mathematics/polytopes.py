@@ -34,6 +34,7 @@ from .elementary import as_integer, as_rational
 from ..foundation.errors import DomainError
 from .polygons import convex_hull, polygon_count, _ceil
 from .ehrhart import budget, count
+from .integer_lattices import extended_gcd
 from .polyhedra import Polyhedron, convex_hull_polyhedron, describe
 
 __all__ = ["lattice_points", "lattice_points_inequalities", "interior_lattice_points", "polygon_count",
@@ -196,7 +197,7 @@ def _segment_lattice_points(p, q) -> int:
         return 0
     a, b, c = a // g, b // g, c // g
     # one integer solution by the extended Euclid algorithm, then x = x* + b k, y = y* - a k
-    u, v = _bezout(a, b)                    # a u + b v = 1
+    _, u, v = extended_gcd(a, b)            # a u + b v = 1
     xs, ys = u * c, v * c
     # the k with the point between p and q: project on the direction (b, -a)
     def k_of(x, y):
@@ -205,16 +206,6 @@ def _segment_lattice_points(p, q) -> int:
     return max(0, _floor(k1) - _ceil(k0) + 1)
 
 
-def _bezout(a: int, b: int):
-    old_r, r, old_s, s, old_t, t = a, b, 1, 0, 0, 1
-    while r:
-        q = old_r // r
-        old_r, r = r, old_r - q * r
-        old_s, s = s, old_s - q * s
-        old_t, t = t, old_t - q * t
-    if old_r < 0:
-        old_s, old_t = -old_s, -old_t
-    return old_s, old_t
 
 
 def interior_lattice_points(t, points, limits=None) -> Fraction:

@@ -11,11 +11,13 @@ import sys
 import time
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), ".."))
 
 import mpmath  # noqa: E402
 
 from checker.mathematics.fourier_dedekind import fourier_dedekind  # noqa: E402
 from checker.mathematics.fourier_dedekind_reciprocity import by_reciprocity, reciprocity_cost  # noqa: E402
+from reference import fourier_dedekind_by_roots_of_unity  # noqa: E402
 
 PARTS = [3, 7, 11]
 
@@ -30,14 +32,7 @@ def best_of(fn, repeat=3):
 
 
 def mpmath_sum(n, parts, b):
-    with mpmath.workdps(30):
-        total = mpmath.mpc(0)
-        for j in range(1, b):
-            term = mpmath.expjpi(mpmath.mpf(2 * j * n) / b)
-            for a in parts:
-                term /= 1 - mpmath.expjpi(mpmath.mpf(2 * j * a) / b)
-            total += term
-        return total / b
+    return fourier_dedekind_by_roots_of_unity(n, parts, b, 30)
 
 
 def main():

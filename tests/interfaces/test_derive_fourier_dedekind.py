@@ -9,18 +9,13 @@ from hypothesis import given, settings, strategies as st
 
 from checker import check_text
 from checker.interfaces.derive import derive_fourier_dedekind
+from reference import fourier_dedekind_by_roots_of_unity
 
 
 def mp_sum(n, parts, b):
-    # mpmath: (1/b) sum_{j=1}^{b-1} xi^(jn) / prod (1 - xi^(j a)), at 40 digits
-    with mpmath.workdps(40):
-        total = mpmath.mpc(0)
-        for j in range(1, b):
-            term = mpmath.expjpi(mpmath.mpf(2 * j * n) / b)
-            for a in parts:
-                term /= 1 - mpmath.expjpi(mpmath.mpf(2 * j * a) / b)
-            total += term
-        return (total / b).real
+    return fourier_dedekind_by_roots_of_unity(n, parts, b, 40).real
+
+
 
 
 def last_value(text):

@@ -15,18 +15,9 @@ from checker.kernel.functions import fourier_dedekind as fourier_dedekind_fast
 from checker.mathematics.fourier_dedekind import fourier_dedekind
 from checker.mathematics.fourier_dedekind_reciprocity import by_reciprocity, poly_at, reciprocity_total
 from conftest import flint_fraction, sympy_series
+from reference import fourier_dedekind_by_roots_of_unity as mp_sum   # mpmath, 50 digits
 
 
-def mp_sum(n, parts, b):
-    # mpmath: (1/b) sum_{j=1}^{b-1} xi^(jn) / prod (1 - xi^(j a)), at 50 digits
-    with mpmath.workdps(50):
-        total = mpmath.mpc(0)
-        for j in range(1, b):
-            term = mpmath.expjpi(mpmath.mpf(2 * j * n) / b)
-            for a in parts:
-                term /= 1 - mpmath.expjpi(mpmath.mpf(2 * j * a) / b)
-            total += term
-        return total / b
 
 
 def mp_close(value: Fraction, reference) -> bool:

@@ -11,18 +11,13 @@ from checker.foundation.errors import DomainError
 from checker.mathematics.fourier_dedekind import _pair_value, cyclic_convolution, fourier_dedekind, pair_table
 from checker.mathematics.partitions import polynomial_part
 from checker.mathematics.dedekind import dedekind
+from reference import fourier_dedekind_by_roots_of_unity
 
 
 def mpmath_definition(n, parts, b, dps=60):
-    # mpmath: (1/b) sum_{j=1}^{b-1} xi^(jn) / prod (1 - xi^(j a)), at 60 digits
-    with mpmath.workdps(dps):
-        total = mpmath.mpc(0)
-        for j in range(1, b):
-            term = mpmath.expjpi(mpmath.mpf(2 * j * n) / b)
-            for a in parts:
-                term /= 1 - mpmath.expjpi(mpmath.mpf(2 * j * a) / b)
-            total += term
-        return total / b
+    return fourier_dedekind_by_roots_of_unity(n, parts, b, dps)
+
+
 
 
 def close(value, reference, tol=mpmath.mpf(10) ** -40):

@@ -18,17 +18,9 @@ import mpmath  # noqa: E402
 from checker.mathematics.fourier_dedekind import fourier_dedekind  # noqa: E402
 from checker.mathematics.fourier_dedekind_reciprocity import by_reciprocity, reciprocity_cost  # noqa: E402
 from reference import fourier_dedekind_by_roots_of_unity  # noqa: E402
+from timing import best_of  # noqa: E402
 
 PARTS = [3, 7, 11]
-
-
-def best_of(fn, repeat=3):
-    times = []
-    for _ in range(repeat):
-        t = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t)
-    return min(times)
 
 
 def mpmath_sum(n, parts, b):

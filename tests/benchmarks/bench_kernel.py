@@ -18,15 +18,7 @@ import flint  # noqa: E402
 from checker.mathematics.dedekind import dedekind  # noqa: E402
 from checker.mathematics.fourier_dedekind import fourier_dedekind  # noqa: E402
 from checker.mathematics.partitions import PartitionQuasiPolynomial, partitions, partitions_by_table  # noqa: E402
-
-
-def best_of(fn, repeat=5):
-    times = []
-    for _ in range(repeat):
-        t = time.perf_counter()
-        fn()
-        times.append(time.perf_counter() - t)
-    return min(times)
+from timing import best_of  # noqa: E402
 
 
 def coprime_pairs(rng, digits, count):

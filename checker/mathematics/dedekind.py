@@ -48,9 +48,10 @@ __all__ = [
     "generalized_dedekind_by_definition", "generalized_dedekind_by_reciprocity",
 ]
 
-_LEADING_BITS = 400          # bits of the leading parts simulated per batch
+_LEADING_BITS = 300          # bits of the leading parts simulated per batch (tuned by bench_kernel.py)
 _GMP_BITS = 160              # below this, carrying the cofactor beats a call into gmpy2
-_STOP = 1 << (_LEADING_BITS // 2 + 8)
+_STOP = 1 << (_LEADING_BITS // 2 + 4)    # where a batch stops: rarely refused by the check
+_BATCH_BITS = _LEADING_BITS + 64         # batches while the smaller number is longer than this
 
 
 def reciprocity_term(h: int, k: int) -> Fraction:
@@ -60,14 +61,17 @@ def reciprocity_term(h: int, k: int) -> Fraction:
 
 _NOT_LOADED = object()
 _gmp_invert = _NOT_LOADED             # optional: GMP's modular inverse is much faster on long numbers
+_gmp_mpz = None                       # gmpy2.mpz, loaded with it: the batches' long products
 
 
 def _load_gmp():
-    """gmpy2's inverse, imported on first need (its import costs a start-up ~0.1 s)."""
-    global _gmp_invert
+    """gmpy2's inverse, imported on first need (its import costs a start-up ~0.1 s).
+
+    Setting `_gmp_invert` to None switches gmpy2 off (the long products too)."""
+    global _gmp_invert, _gmp_mpz
     if _gmp_invert is _NOT_LOADED:
         try:
-            from gmpy2 import invert as _gmp_invert
+            from gmpy2 import invert as _gmp_invert, mpz as _gmp_mpz
         except ImportError:            # pragma: no cover - depends on the machine
             _gmp_invert = None
     return _gmp_invert
@@ -81,37 +85,8 @@ def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int]:
     """
     alt, n = 0, 0
     u0, u1 = 0, 1
-    while r1.bit_length() > _LEADING_BITS + 64:
-        shift = r0.bit_length() - _LEADING_BITS
-        x0 = x = r0 >> shift
-        y0 = y = r1 >> shift
-        a, c, s = 1, 0, 0
-        # run Euclid on the leading parts; x = a*x0 + b*y0, y = c*x0 + d*y0
-        while y > _STOP:
-            q = x // y
-            x, y = y, x - q * y
-            a, c = c, a - q * c
-            s = q - s
-        if c:
-            b = (x - a * x0) // y0
-            d = (y - c * x0) // y0
-            n0, n1 = a * r0 + b * r1, c * r0 + d * r1
-            # the batch's quotients are the true ones exactly when the new
-            # pair is again a remainder pair (uniqueness of continued fractions)
-            if n0 > n1 >= 0:
-                odd = a * d - b * c < 0
-                t = s if odd else -s        # s was summed from the last quotient
-                alt += t if n % 2 == 0 else -t
-                n += 1 if odd else 2
-                r0, r1 = n0, n1
-                if want_inverse:
-                    u0, u1 = a * u0 + b * u1, c * u0 + d * u1
-                continue
-        q, r2 = divmod(r0, r1)
-        alt += q if n % 2 == 0 else -q
-        n += 1
-        r0, r1 = r1, r2
-        u0, u1 = u1, u0 - q * u1
+    if r1.bit_length() > _BATCH_BITS:
+        alt, n, r0, r1, u0, u1 = _batches(r0, r1, want_inverse)
     # the small tail, two quotients a turn; `ahead` collects the quotients
     # whose sign is that of the next one, `behind` the others
     sign = 1 if n % 2 == 0 else -1
@@ -139,6 +114,68 @@ def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int]:
         n += 2
         if not r1:
             return alt + sign * (ahead - behind), n, 0
+
+
+def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
+    """Euclid's algorithm on coprime r0 > r1 > 0 while r1 is long, many quotients a batch (Lehmer 1938).
+
+    Returns (q_1 - q_2 + ..., n, r0, r1, u0, u1) with n of the parity of the number of quotients
+    taken, (r0, r1) the remainder pair reached (r1 of at most _BATCH_BITS bits) and, with
+    want_inverse, r_i = u_i * r1_given (mod r0_given).  A batch runs Euclid on the leading
+    _LEADING_BITS bits (x0, y0) while the remainder stays above _STOP; its quotients q_i >= 1 are
+    only proposed: they are used after the new pair (n0, n1) = M^-1 (r0, r1), M the product of
+    the matrices [[q_i, 1], [1, 0]], is checked in exact arithmetic to satisfy n0 > n1 >= 0.  Then
+    r0/r1 = [q_1; q_2, ..., q_m, n0/n1] with n0/n1 > 1, and a continued fraction with such a tail
+    is unique, so the q_i are Euclid's own.  Otherwise one exact step is taken instead.  The long
+    products run on gmpy2's mpz when gmpy2 is in use.
+    """
+    mpz = _gmp_mpz if _load_gmp() is not None else None
+    if mpz is not None:
+        r0, r1 = mpz(r0), mpz(r1)
+    alt, n = 0, 0
+    u0, u1 = 0, 1
+    size, stop, above, split = _LEADING_BITS, _STOP, _BATCH_BITS, divmod
+    while r1.bit_length() > above:
+        shift = r0.bit_length() - size
+        x0 = x = int(r0 >> shift)
+        y0 = y = int(r1 >> shift)
+        if y > stop:
+            # x = a x0 + b y0 and y = c x0 + d y0 throughout; two quotients a turn,
+            # `ahead` summing those of odd index, `behind` those of even index
+            a, c = 1, 0
+            ahead = behind = 0
+            while True:
+                q, x = split(x, y)
+                a -= q * c
+                ahead += q
+                if x <= stop:
+                    x, y, a, c = y, x, c, a          # an odd number of quotients
+                    odd = True
+                    break
+                q, y = split(y, x)
+                c -= q * a
+                behind += q
+                if y <= stop:
+                    odd = False
+                    break
+            b = (x - a * x0) // y0                   # exact: x - a x0 = b y0
+            d = (y - c * x0) // y0
+            n0, n1 = a * r0 + b * r1, c * r0 + d * r1
+            if n0 > n1 >= 0:                         # the proof that the batch's quotients are Euclid's
+                s = ahead - behind
+                alt += s if n % 2 == 0 else -s
+                n += 1 if odd else 2
+                r0, r1 = n0, n1
+                if want_inverse:
+                    u0, u1 = a * u0 + b * u1, c * u0 + d * u1
+                continue
+        q, r2 = divmod(r0, r1)                       # one exact step (a huge quotient, or a refused batch)
+        q = int(q)
+        alt += q if n % 2 == 0 else -q
+        n += 1
+        r0, r1 = r1, r2
+        u0, u1 = u1, u0 - q * u1
+    return alt, n, int(r0), int(r1), u0, u1
 
 
 def _reduced_pair(h: int, k: int) -> tuple[int, int]:

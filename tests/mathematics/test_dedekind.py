@@ -232,3 +232,108 @@ def test_apostol_even_order_and_common_factor_use_the_sum():
     assert generalized_dedekind(3, 10, 100) == generalized_dedekind_by_definition(3, 10, 100)
     with pytest.raises(DomainError):
         generalized_dedekind_by_reciprocity(2, 5, 101)
+
+
+# -- the batched (Lehmer) quotients: every proposal is checked before use ----------------
+
+def _both_gmpy2_modes():
+    import checker.mathematics.dedekind as module
+    return [None, module._load_gmp()] if module._load_gmp() is not None else [None]
+
+
+def _from_quotients(quotients):
+    """The coprime pair (h, k) whose Euclid quotients of k / h are the given ones (the last >= 2)."""
+    num, den = 1, 0                    # k / h = [q_1; q_2, ..., q_m]
+    for q in reversed(quotients):
+        num, den = q * num + den, num
+    return den, num
+
+
+def _adversarial_pairs():
+    rng = random.Random(2026)
+    pairs = []
+    a, b = 1, 2                        # Fibonacci: every quotient 1, the most steps per bit
+    for i in range(1, 9000):
+        a, b = b, a + b
+        if i in (400, 401, 2000, 8999):
+            pairs += [(a, b), (b - a, b)]
+    for bits in (700, 1500, 5000):     # k = 2^n +- 1: long runs of equal quotients
+        for k in (2**bits - 1, 2**bits + 1):
+            pairs += [(2, k), (3, k), (2**(bits // 2) + 1, k), (k - 2, k), ((k - 1) // 2, k),
+                      (rng.randrange(1, 2**64), k)]
+    # huge quotients: in the first place, in the middle of a batch, and many in a row
+    pairs.append(_from_quotients([2**3000 + 5, 3, 1, 4, 2]))
+    pairs.append(_from_quotients([1] * 300 + [2**700 + 1] + [1] * 300 + [7]))
+    pairs.append(_from_quotients([rng.choice([1, 2, 2**140, 2**300 - 1]) for _ in range(40)] + [2]))
+    pairs.append(_from_quotients([rng.randrange(1, 2**rng.randrange(1, 200)) for _ in range(200)] + [3]))
+    return pairs
+
+
+@pytest.mark.parametrize("gmp", range(2))
+def test_batches_on_adversarial_pairs_against_python_flint(monkeypatch, gmp):
+    # python-flint's fmpq.dedekind_sum; Fibonacci pairs, k = 2^n +- 1, huge quotients
+    import checker.mathematics.dedekind as module
+    modes = _both_gmpy2_modes()
+    if gmp >= len(modes):
+        pytest.skip("gmpy2 is not installed")
+    monkeypatch.setattr(module, "_gmp_invert", modes[gmp])
+    for h, k in _adversarial_pairs():
+        exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
+
+
+def _quotients(x, y, stop=0):
+    out = []
+    while y > stop:
+        out.append(x // y)
+        x, y = y, x % y
+    return out
+
+
+def _first_batch_is_wrong(h, k, leading, stop):
+    """Whether Euclid on the leading bits of (k, h) proposes a quotient that is not Euclid's own."""
+    shift = max(k.bit_length() - leading, 0)
+    proposed = _quotients(k >> shift, h >> shift, stop)
+    return proposed != _quotients(k, h)[:len(proposed)]
+
+
+@pytest.mark.parametrize("leading, stop", [(8, 1), (12, 2), (40, 1), (300, 2)])
+def test_wrong_batch_proposals_are_refused(monkeypatch, leading, stop):
+    # Batches run down to `stop` on a few leading bits, where many proposed quotients are
+    # wrong: the exact check must refuse each wrong batch, so the values stay python-flint's
+    import checker.mathematics.dedekind as module
+    monkeypatch.setattr(module, "_LEADING_BITS", leading)
+    monkeypatch.setattr(module, "_STOP", stop)
+    monkeypatch.setattr(module, "_BATCH_BITS", leading + 2)
+    rng = random.Random(leading)
+    pairs = _adversarial_pairs()[:6] + [random_coprime_pair(rng, d) for d in (30, 200, 700) for _ in range(4)]
+    pairs = [(h % k, k) for h, k in pairs]
+    assert any(_first_batch_is_wrong(h, k, leading, stop) for h, k in pairs)   # the check has work
+    for gmp in _both_gmpy2_modes():
+        monkeypatch.setattr(module, "_gmp_invert", gmp)
+        for h, k in pairs:
+            exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
+
+
+@given(st.integers(1, 2**4000), st.integers(2**500, 2**4000), st.booleans())
+def test_batches_against_python_flint(h, k, pure):
+    # python-flint's fmpq.dedekind_sum, beyond the batch threshold, with and without gmpy2
+    import checker.mathematics.dedekind as module
+    saved = module._load_gmp()
+    module._gmp_invert = None if pure else saved
+    try:
+        assert dedekind(h, k) == flint_fraction(flint.fmpq.dedekind_sum(h, k))
+    finally:
+        module._gmp_invert = saved
+
+
+@given(st.integers(-10**5, 10**5), st.integers(2**10, 3 * 10**4), st.sampled_from([(6, 1), (9, 2), (10, 3)]))
+def test_small_batches_against_the_definition(h, k, batch):
+    # The definition summed term by term, with batches made small enough to run at these k
+    # (and to propose wrong quotients often, which the check must refuse)
+    import checker.mathematics.dedekind as module
+    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS)
+    module._LEADING_BITS, module._STOP, module._BATCH_BITS = batch[0], batch[1], batch[0] + 2
+    try:
+        assert dedekind(h, k) == dedekind_by_definition(h, k)
+    finally:
+        module._LEADING_BITS, module._STOP, module._BATCH_BITS = saved

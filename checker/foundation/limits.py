@@ -7,7 +7,6 @@ limit and the option that raises it.
 from __future__ import annotations
 
 import time
-from contextlib import contextmanager
 from contextvars import ContextVar
 from dataclasses import dataclass, fields, replace
 
@@ -88,18 +87,27 @@ DEFAULT_LIMITS = Limits()
 _DEADLINE: ContextVar = ContextVar("quasicert_deadline", default=None)
 
 
-@contextmanager
-def time_limit(seconds: float, at: float | None = None):
-    """Run the body with a deadline `seconds` from now (or at the monotonic time `at`)."""
-    deadline = (time.monotonic() + seconds) if at is None else at
-    outer = _DEADLINE.get()
-    if outer is not None and outer[0] <= deadline:
-        deadline, seconds = outer
-    token = _DEADLINE.set((deadline, seconds))
-    try:
-        yield
-    finally:
-        _DEADLINE.reset(token)
+class time_limit:
+    """Run the body with a deadline `seconds` from now (or at the monotonic time `at`).
+
+    A class rather than a generator: it opens every evaluation, and costs a third as much."""
+
+    __slots__ = ("seconds", "at", "token")
+
+    def __init__(self, seconds: float, at: float | None = None):
+        self.seconds, self.at = seconds, at
+
+    def __enter__(self):
+        seconds = self.seconds
+        deadline = (time.monotonic() + seconds) if self.at is None else self.at
+        outer = _DEADLINE.get()
+        if outer is not None and outer[0] <= deadline:
+            deadline, seconds = outer
+        self.token = _DEADLINE.set((deadline, seconds))
+
+    def __exit__(self, *exc_info):
+        _DEADLINE.reset(self.token)
+        return False
 
 
 def check_time() -> None:

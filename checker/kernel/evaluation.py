@@ -26,6 +26,8 @@ from ..mathematics.second_opinion import second_opinion
 __all__ = ["Evaluator", "binding"]
 
 _MEMO_SIZE = 400_000
+_LIST_FOR_NUMBER = "a list stands where a number is needed"
+_TOO_DEEP = "the expression is nested too deeply to evaluate"
 _EUCLID_MEMO_BITS = 256     # from this size on, one pass fills every pair of a reciprocity chain
 
 
@@ -51,12 +53,31 @@ class Evaluator:
         except CertificateError as e:
             raise e.at(node)
         except RecursionError:
-            raise BudgetExceeded("the expression is nested too deeply to evaluate").at(node) from None
+            raise BudgetExceeded(_TOO_DEEP).at(node) from None
 
     def number(self, node: ex.Expr) -> Fraction:
         v = self.value(node)
         if isinstance(v, tuple):
-            raise DomainError("a list stands where a number is needed").at(node)
+            raise DomainError(_LIST_FOR_NUMBER).at(node)
+        return v
+
+    def number_of_call(self, name: str, numbers: tuple, tree) -> Fraction:
+        """number(Call(name, (Num(n), ...))) without building the tree first.
+
+        The steps `number` takes on that node (each argument a Fraction, then `call`, a
+        list refused) and the same errors, `tree()` making the node only when an error
+        needs its position; the value is not looked up in the memo nor remembered."""
+        try:
+            spec = REGISTRY.get(name)
+            if spec is None:
+                raise DomainError(_unknown_function(name))
+            v = self._compute(name, spec, tuple(map(Fraction, numbers)))
+        except CertificateError as e:
+            raise e.at(tree())
+        except RecursionError:
+            raise BudgetExceeded(_TOO_DEEP).at(tree()) from None
+        if isinstance(v, tuple):
+            raise DomainError(_LIST_FOR_NUMBER).at(tree())
         return v
 
     def call(self, name: str, args: tuple, node=None):
@@ -65,25 +86,31 @@ class Evaluator:
         if spec is None:
             raise DomainError(_unknown_function(name)).at(node)
         key = (name, _canonical(name, args))
-        hit = self.memo.get(key)
+        memo = self.memo
+        hit = memo.get(key)
         if hit is not None:
             return hit
+        result = self._compute(name, spec, args)
+        if len(memo) > _MEMO_SIZE:
+            memo.clear()
+        memo[key] = result
+        return result
+
+    def _compute(self, name: str, spec, args: tuple):
+        """Value of a function at concrete arguments, not looked up in the memo."""
         check_time()
         if name == "partitions" and len(args) == 2:
             value = self._from_partition_table(args)
             if value is not None:
-                self._remember(key, value)
                 return value
-        if name == "dedekind" and not self.paranoid:
+        if name == "dedekind" and not self.paranoid and (self.chain_wanted or self._along_euclid):
             value = self._from_euclid_pass(args)
             if value is not None:
-                self._remember(key, value)
                 return value
         result = spec.call(args, self.limits)
         self._check_size(result)
         if self.paranoid:
             self._second_opinion(name, args, result)
-        self._remember(key, result)
         return result
 
     def _second_opinion(self, name, args, result):
@@ -312,7 +339,7 @@ def _table(parts, size):
 def _canonical(name, args):
     """Memo key: periodic functions depend on their argument modulo the period only."""
     try:
-        if name == "dedekind" and len(args) == 2 and args[1].denominator == 1 and args[1] >= 1 \
+        if name == "dedekind" and len(args) == 2 and args[1].denominator == 1 and args[1].numerator >= 1 \
                 and args[0].denominator == 1:
             # ints: equal to and hashed like the Fractions they stand for, and cheaper
             k = args[1].numerator

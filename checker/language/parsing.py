@@ -23,7 +23,7 @@ from ..foundation.errors import BudgetExceeded, CertificateError, SyntaxProblem
 from ..foundation.limits import DEFAULT_LIMITS, Limits
 from ..foundation.numbers import text_int
 
-__all__ = ["parse_expression", "parse_certificate", "grammar_text", "grammar_tables"]
+__all__ = ["parse_expression", "parse_certificate", "grammar_text", "grammar_tables", "read_number_call"]
 
 # Lark is imported only when a text needs it: most texts are read by the plain
 # reader, whose tables are kept on disk beside Lark's own cache of the grammar.
@@ -469,11 +469,23 @@ def _parse(text: str, start: str, limits: Limits):
     return parse_with_lark(text, start, limits)
 
 
+def read_number_call(text: str, limits: Limits = DEFAULT_LIMITS):
+    """The text as a NumberCall (NAME(INT, ..., INT), its tree on demand), or None.
+
+    A text it accepts holds no character that `_refuse_misleading` refuses, and Lark
+    reads it as the NumberCall's tree (tests/language/test_plain_reader.py)."""
+    return _plain_reader().number_call(text, limits)
+
+
 def read_plain(text: str, start: str, limits: Limits = DEFAULT_LIMITS):
     """The plain reader's tree for `text`, or None when the text is for Lark."""
     shared = _plain_reader()
     if not shared.enabled:
         return None
+    if start == "expr":
+        call = shared.number_call(text, limits)
+        if call is not None:
+            return call.tree()
     reader = object.__new__(PlainReader)  # its own position (parses may run in threads), shared tables
     reader.__dict__.update(shared.__dict__)
     try:

@@ -25,7 +25,7 @@ from . import expressions as ex
 from . import statements as st
 from ..foundation.numbers import text_int
 
-__all__ = ["PlainReader", "GiveUp", "SHAPE", "RELATIONS"]
+__all__ = ["PlainReader", "GiveUp", "SHAPE", "RELATIONS", "NumberCall"]
 
 RELATIONS = {"=": "=", "<": "<", ">": ">", "<=": "<=", ">=": ">=", "!=": "!=",
              "\u2264": "<=", "\u2265": ">=", "\u2260": "!="}
@@ -140,6 +140,18 @@ class PlainReader:
         # terminals whose lexemes are never anything else (long numbers and names, mostly)
         self.plain_roles = {k: frozenset((k,)) for k in ("NAME", "INT", "STRING") if k in self.small}
         self.multiline = frozenset(name for name, regex, _ in terminals if _may_span_lines(regex))
+        self.number_call_pattern = self._number_call_pattern() if self.enabled else None
+
+    def _number_call_pattern(self):
+        """NAME(INT, ..., INT) on one line, blanks (spaces, tabs) around any token: `call` and
+        `arguments` of the grammar with numbers for arguments, from the grammar's own NAME, INT
+        and blanks; None when those do not read as they do here."""
+        if not any(self.small[name].fullmatch(" \t") for name in self.ignore) or \
+                any(self.small[name].fullmatch(literal) for name in ("NAME", "INT") for literal in "(),"):
+            return None
+        blank, name, number = "[ \t]*", self.small["NAME"].pattern, self.small["INT"].pattern
+        item = f"{blank}(?:{number}){blank}"
+        return re.compile(f"{blank}({name}){blank}\\(((?:{item},)*{item})\\){blank}")
 
     # -- tokens ----------------------------------------------------------------
     def _start(self, text: str, limits):
@@ -221,6 +233,31 @@ class PlainReader:
         return self.kind == "NAME" and self.lex not in self.keywords
 
     # -- entry points ------------------------------------------------------------
+    def number_call(self, text: str, limits):
+        """The NumberCall the whole text is (NAME(INT, ..., INT) on one line), or None.
+
+        Only what Lark reads as exactly that Call, within every budget: a keyword for NAME,
+        a number over `literal-digits`, a text that might exceed `tokens` or `nesting`,
+        anything else is None (and the text goes the usual way).  Its characters are
+        letters, digits, _ ' ( ) , space and tab only, none that `parsing` refuses."""
+        pattern = self.number_call_pattern
+        m = pattern.fullmatch(text) if pattern is not None else None
+        if m is None:
+            return None
+        name, inside = m.groups()
+        if name in self.keywords or len(text) > limits.tokens or limits.nesting < 1:
+            return None
+        if len(inside) <= _SHORT_NUMBER and len(inside) <= limits.literal_digits:
+            # the pattern let through ASCII digits, blanks and commas only: int() reads each part
+            return NumberCall((name, tuple(map(int, inside.split(","))), m))
+        values = []
+        for digits in inside.split(","):
+            digits = digits.strip(" \t")
+            if len(digits) > limits.literal_digits:
+                return None
+            values.append(text_int(digits))
+        return NumberCall((name, tuple(values), m))
+
     def expression(self, text: str, limits):
         if not self.enabled:
             raise GiveUp()
@@ -454,6 +491,33 @@ class PlainReader:
             if not "COMMA" in self.roles:
                 raise GiveUp()
             self._next()
+
+
+_SHORT_NUMBER = 300      # int() reads these directly; longer ones go through text_int
+
+
+class NumberCall(tuple):
+    """NAME(INT, ..., INT) as read from a text: (name, numbers, match), and the tree on demand."""
+
+    __slots__ = ()
+
+    @property
+    def name(self) -> str:
+        return self[0]
+
+    @property
+    def values(self) -> tuple:
+        return self[1]
+
+    def tree(self) -> ex.Call:
+        """The Call with its Num arguments, at the positions Lark gives (one line, columns from 1)."""
+        name, values, m = self
+        name_at, inside_at, close_at = m.start(1), m.start(2), m.end(2)
+        numbers = []
+        for value, found in zip(values, re.finditer("[^ \t,]+", m.group(2))):
+            column = inside_at + found.start() + 1
+            numbers.append(ex.Num(value, ex.Pos(1, column, 1, column + found.end() - found.start())))
+        return ex.Call(name, tuple(numbers), ex.Pos(1, name_at + 1, 1, close_at + 2))
 
 
 def _span(first: ex.Pos, last: ex.Pos) -> ex.Pos:

@@ -5,7 +5,7 @@ from fractions import Fraction
 
 from ..foundation.limits import DEFAULT_LIMITS, Limits, time_limit
 from ..kernel.evaluation import Evaluator
-from ..language.parsing import parse_expression
+from ..language.parsing import parse_expression, read_number_call
 
 __all__ = ["evaluate", "evaluate_value"]
 
@@ -24,6 +24,11 @@ def evaluate(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS
     >>> evaluate("-2^2"), evaluate("2^3^2")
     (Fraction(-4, 1), Fraction(512, 1))
     """
+    call = read_number_call(text, limits)
+    if call is not None:        # NAME(INT, ..., INT): no tree unless an error wants its position
+        with time_limit(limits.seconds):
+            name, values, _ = call
+            return Evaluator(env, limits).number_of_call(name, values, call.tree)
     expr = parse_expression(text, limits)
     with time_limit(limits.seconds):
         return Evaluator(env, limits).number(expr)

@@ -144,14 +144,16 @@ class PlainReader:
 
     def _number_call_pattern(self):
         """NAME(INT, ..., INT) on one line, blanks (spaces, tabs) around any token: `call` and
-        `arguments` of the grammar with numbers for arguments, from the grammar's own NAME, INT
-        and blanks; None when those do not read as they do here."""
-        if not any(self.small[name].fullmatch(" \t") for name in self.ignore) or \
-                any(self.small[name].fullmatch(literal) for name in ("NAME", "INT") for literal in "(),"):
+        `arguments` of the grammar with numbers for arguments, from the grammar's own NAME,
+        INT (which must be ASCII digits) and blanks; None when those do not read as here.
+        The pattern lets digits, blanks and commas through between the parentheses, and
+        `number_call` checks that they are INTs separated by commas."""
+        if self.small["INT"].pattern != "[0-9]+" or \
+                not any(self.small[name].fullmatch(" \t") for name in self.ignore) or \
+                any(self.small["NAME"].fullmatch(literal) for literal in "(),"):
             return None
-        blank, name, number = "[ \t]*", self.small["NAME"].pattern, self.small["INT"].pattern
-        item = f"{blank}(?:{number}){blank}"
-        return re.compile(f"{blank}({name}){blank}\\(((?:{item},)*{item})\\){blank}")
+        blank = "[ \t]*"
+        return re.compile(f"{blank}({self.small['NAME'].pattern}){blank}\\(([0-9 \t,]*)\\){blank}")
 
     # -- tokens ----------------------------------------------------------------
     def _start(self, text: str, limits):
@@ -248,12 +250,14 @@ class PlainReader:
         if name in self.keywords or len(text) > limits.tokens or limits.nesting < 1:
             return None
         if len(inside) <= _SHORT_NUMBER and len(inside) <= limits.literal_digits:
-            # the pattern let through ASCII digits, blanks and commas only: int() reads each part
-            return NumberCall((name, tuple(map(int, inside.split(","))), m))
-        values = []
+            try:     # int() takes [ \t]*[0-9]+[ \t]* (all the pattern lets through) and nothing else
+                return NumberCall((name, tuple(map(int, inside.split(","))), m))
+            except ValueError:          # an empty argument, or blanks between digits
+                return None
+        values, number = [], self.small["INT"]
         for digits in inside.split(","):
             digits = digits.strip(" \t")
-            if len(digits) > limits.literal_digits:
+            if len(digits) > limits.literal_digits or not number.fullmatch(digits):
                 return None
             values.append(text_int(digits))
         return NumberCall((name, tuple(values), m))

@@ -141,20 +141,31 @@ def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
         y0 = y = int(r1 >> shift)
         if y > stop:
             # x = a x0 + b y0 and y = c x0 + d y0 throughout; two quotients a turn,
-            # `ahead` summing those of odd index, `behind` those of even index
+            # `ahead` summing those of odd index, `behind` those of even index; a quotient
+            # is 1 four times in ten (Gauss-Kuzmin), so subtract first and divide if needed
             a, c = 1, 0
             ahead = behind = 0
             while True:
-                q, x = split(x, y)
-                a -= q * c
-                ahead += q
+                x -= y
+                if x < y:
+                    a -= c
+                    ahead += 1
+                else:
+                    q, x = split(x, y)
+                    a -= (q + 1) * c
+                    ahead += q + 1
                 if x <= stop:
                     x, y, a, c = y, x, c, a          # an odd number of quotients
                     odd = True
                     break
-                q, y = split(y, x)
-                c -= q * a
-                behind += q
+                y -= x
+                if y < x:
+                    c -= a
+                    behind += 1
+                else:
+                    q, y = split(y, x)
+                    c -= (q + 1) * a
+                    behind += q + 1
                 if y <= stop:
                     odd = False
                     break

@@ -112,7 +112,7 @@ def test_errors_are_the_tree_s(text):
 @pytest.mark.parametrize("text", [
     "dedekind(1_000, 7)", "dedekind(\u0663, 7)", "dedekind(\uff11, 7)", "dedekind(-1, 7)", "dedekind(+1, 7)",
     "dedekind(1, 7) + 0", "dedekind(1, 7)\n", "dedekind(1,\n7)", "dedekind(1, 7) # c", "dedekind(1, 7,)",
-    "dedekind(, 7)", "dedekind()", "total(1, 2)", "sum(1, 2)", "by(1)", "(dedekind(1, 7))", "dedekind(1, 7)(2)",
+    "dedekind(, 7)", "dedekind(1 2, 7)", "dedekind( , 7)", "dedekind()", "total(1, 2)", "sum(1, 2)", "by(1)", "(dedekind(1, 7))", "dedekind(1, 7)(2)",
     "dedekind(1, 7\u200e)", "dedekind(1,\r7)", "d\u00e9dekind(1, 7)", "dedekind((1), 7)", "f(g(1))", "mod(1, 0)",
 ])
 def test_other_texts_go_the_usual_way(text):

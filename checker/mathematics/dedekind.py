@@ -124,10 +124,11 @@ def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
     want_inverse, r_i = u_i * r1_given (mod r0_given).  A batch runs Euclid on the leading
     _LEADING_BITS bits (x0, y0) while the remainder stays above _STOP; its quotients q_i >= 1 are
     only proposed: they are used after the new pair (n0, n1) = M^-1 (r0, r1), M the product of
-    the matrices [[q_i, 1], [1, 0]], is checked in exact arithmetic to satisfy n0 > n1 >= 0.  Then
-    r0/r1 = [q_1; q_2, ..., q_m, n0/n1] with n0/n1 > 1, and a continued fraction with such a tail
-    is unique, so the q_i are Euclid's own.  Otherwise one exact step is taken instead.  The long
-    products run on gmpy2's mpz when gmpy2 is in use.
+    the matrices [[q_i, 1], [1, 0]], is checked in exact arithmetic to satisfy n0 > n1 > 0.  Then
+    r0/r1 = [q_1; q_2, ..., q_m, n0/n1] with every q_i >= 1 and 1 < n0/n1 < infinity, so the
+    remainders M gives decrease strictly and each q_i is the floor of its quotient: Euclid's own
+    (a continued fraction with such a tail is unique).  Otherwise one exact step is taken
+    instead.  The long products run on gmpy2's mpz when gmpy2 is in use.
     """
     mpz = _gmp_mpz if _load_gmp() is not None else None
     if mpz is not None:
@@ -172,7 +173,7 @@ def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
             b = (x - a * x0) // y0                   # exact: x - a x0 = b y0
             d = (y - c * x0) // y0
             n0, n1 = a * r0 + b * r1, c * r0 + d * r1
-            if n0 > n1 >= 0:                         # the proof that the batch's quotients are Euclid's
+            if n0 > n1 > 0:                          # the proof that the batch's quotients are Euclid's
                 s = ahead - behind
                 alt += s if n % 2 == 0 else -s
                 n += 1 if odd else 2

@@ -473,7 +473,7 @@ def read_number_call(text: str, limits: Limits = DEFAULT_LIMITS):
     """The text as a NumberCall (NAME(INT, ..., INT), its tree on demand), or None.
 
     A text it accepts holds no character that `_refuse_misleading` refuses, and Lark
-    reads it as the NumberCall's tree (tests/language/test_plain_reader.py)."""
+    reads it as the NumberCall's tree (tests/language/test_number_call.py)."""
     return _plain_reader().number_call(text, limits)
 
 

@@ -153,8 +153,9 @@ def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
                     ahead += 1
                 else:
                     q, x = split(x, y)
-                    a -= (q + 1) * c
-                    ahead += q + 1
+                    q += 1
+                    a -= q * c
+                    ahead += q
                 if x <= stop:
                     x, y, a, c = y, x, c, a          # an odd number of quotients
                     odd = True
@@ -165,8 +166,9 @@ def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
                     behind += 1
                 else:
                     q, y = split(y, x)
-                    c -= (q + 1) * a
-                    behind += q + 1
+                    q += 1
+                    c -= q * a
+                    behind += q
                 if y <= stop:
                     odd = False
                     break

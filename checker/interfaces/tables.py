@@ -610,8 +610,9 @@ def _expression_row(payload, ev: Evaluator, fmt: str):
     where_expr, where_value = (0, 1) if fmt == "csv" else ("expression", "value")
     if _UNUSUAL.search(text):
         _odd_characters(text, where_expr)
-    m = _CALL.match(text)
-    # one call only: "f(a) + g(b)" also matches the pattern, with the unbalanced inside "a) + g(b"
+    # one call only: "f(a) + g(b)" also matches the pattern, with the unbalanced inside "a) + g(b";
+    # and no comment: read piece by piece, `f(5 #(, 1), 17)` would lose the `#` that ends the text
+    m = _CALL.match(text) if "#" not in text else None
     spec = REGISTRY.get(m.group(1)) if m and _balanced(m.group(2)) else None
     exact = None
     if spec is not None:

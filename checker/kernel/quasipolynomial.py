@@ -293,7 +293,11 @@ def _unit_power(node, var, ev) -> Shape:
                                f"not a quasi-polynomial in {var}")
     s = shape(node.exponent, var, ev)
     if c == 1:
-        return Shape(0, 1, s.threshold)
+        # 1^E is 1 only where E is an integer (a fractional power is undefined): the period of {E}
+        # makes the identity's points cover a whole period of it, so a non-integer E is met there
+        if s.degree == 0:
+            return Shape(0, s.period, s.threshold)
+        return Shape(0, _fraction_period(node.exponent, s, var, ev, "the exponent of 1"), s.threshold)
     period = _residue_period(node.exponent, s, 2, var, ev, "the exponent of -1")
     return Shape(0, period, s.threshold)
 

@@ -90,6 +90,16 @@ def test_bad_rows(tmp_path, text, message):
     assert report.failures[-1].message == message
 
 
+def test_a_comment_in_an_expression_row_reads_as_the_parser_reads_it(tmp_path):
+    # tests/unsound/csv-comment-inside-call.csv: the one-call short path must not split at commas
+    # that a comment swallowed; s(5, 17) = 1/17 (README), and a trailing comment is only a comment
+    path = tmp_path / "t.csv"
+    path.write_text('expression,value\n"dedekind(5 #(, 1), 17)",1/17\n"dedekind(5, 17) # s(5, 17)",1/17\n')
+    report = check_table(path)
+    assert [f.line for f in report.failures] == [2]
+    assert "the text stops too early" in report.failures[0].message
+
+
 def test_generator_script_runs():
     out = subprocess.run([sys.executable, str(HERE / "tools" / "make_table.py"), "/dev/null", "30",
                           "--wrong-every", "10"], capture_output=True, text=True)

@@ -109,6 +109,15 @@ def test_refusals_for_other_exponentials_and_non_integer_exponents():
     assert check_text("identity for all n: 1^(n^2 + 3) + (-1)^(2*n) = 2\n").ok
 
 
+def test_one_to_a_non_integer_quasipolynomial_is_undefined_somewhere():
+    # tests/unsound/undefined-unit-power-*.qcert: 1^(1/2) has no value in the language, so these fail
+    for exponent in ("n/2", "dedekind(n, 3)", "floor(n/3)/2", "n*(n + 1)/4"):
+        report = check_text(f"identity for n >= 0: 1^({exponent}) = 1\n")
+        assert not report.ok and "the exponent must be an integer" in report.failure.message, exponent
+    for exponent in ("n*(n + 1)/2", "floor(n/3)", "12*dedekind(n, 3)*3"):     # integers for every n
+        assert check_text(f"identity for n >= 0: 1^({exponent}) = 1\n").ok, exponent
+
+
 def test_zero_to_the_zero_is_one():
     # common practice, and the project's one convention: 0^0 = 1 (it was 0 in the evaluator)
     assert check_text("claim 0^0 = 1\nclaim 0^3 = 0\n").ok

@@ -50,8 +50,9 @@ from ..foundation.limits import DEFAULT_LIMITS, Limits
 from .polygons import polygon_count
 from .integer_lattices import hermite_columns, lll_reduce
 from .polyhedra import Polyhedron, nullspace
+from .cones import ConeSum, decomposition_cost
 
-__all__ = ["count", "constituents", "hstar", "evaluate", "budget", "Frame", "frame"]
+__all__ = ["count", "constituents", "hstar", "evaluate", "budget", "Frame", "frame", "cone_sum", "count_by_cones"]
 
 Spend = Optional[Callable[[int], None]]
 
@@ -360,12 +361,54 @@ def count(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False)
     if known is None:
         # interpolation needs D (e + 1) counts at dilates up to about D (e + 1) / 2 + D
         reach = D * (e + 1) // 2 + D
-        if t <= reach or _cost(fr, t) <= D * (e + 1) * _cost(fr, reach):
+        direct = _cost(fr, t)
+        interpolation = D * (e + 1) * _cost(fr, reach)
+        if poly in _CONES or (min(direct, interpolation) > CONES_FROM
+                              and decomposition_cost(fr.rows, fr.vertices) < min(direct, interpolation)):
+            return count_by_cones(poly, t, spend, interior)
+        if t <= reach or direct <= interpolation:
             return _direct(poly, fr, t, interior, spend)
         known = constituents(poly, spend)
     if interior:
         return int((-1) ** e * evaluate(known, -t))
     return int(evaluate(known, t))
+
+
+#: below this many estimated steps, enumeration or interpolation is used (cheap, no decomposition)
+CONES_FROM = 200_000
+_CONES: dict = {}
+
+
+def cone_sum(poly: Polyhedron, spend: Spend = None) -> ConeSum:
+    """The signed unimodular cones of a non-empty polytope, in the lattice coordinates of its hull."""
+    known = _CONES.get(poly)
+    if known is None:
+        fr = _frame_of(poly)
+        known = ConeSum.of(fr.rows, fr.vertices, spend)
+        if len(_CONES) > 256:
+            _CONES.clear()
+        _CONES[poly] = known
+    return known
+
+
+def count_by_cones(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False) -> int:
+    """#(tP cap Z^d) (interior: of t relint P) by Barvinok's decomposition, any integer t >= 0.
+
+    Polynomial in the input size for fixed dimension: the decomposition does not depend
+    on t, and each dilate costs one pass over the unimodular cones (see `cones`).
+    """
+    if t < 0:
+        raise ValueError("count_by_cones counts dilates t >= 0")
+    if poly.empty:
+        return 0
+    fr = _frame_of(poly)
+    if any((t * w).denominator != 1 for w in fr.step):
+        return 0
+    e = poly.dimension
+    if t == 0:
+        return 1 if e == 0 or not interior else 0
+    sums = cone_sum(poly, spend)
+    return (-1) ** e * sums.count(-t, spend) if interior else sums.count(t, spend)
 
 
 def hstar(poly: Polyhedron, spend: Spend = None) -> list[int]:

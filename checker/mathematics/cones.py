@@ -84,29 +84,34 @@ def _primitive(v) -> tuple:
 
 
 def _inverse(rows):
-    """(det, adjugate) of a square integer matrix given by rows: adj = det * rows^-1, integers."""
+    """(det, adjugate) of a square integer matrix given by rows: adj = det * rows^-1, integers.
+
+    Fraction-free Gauss-Jordan elimination (Bareiss 1968) on [G | I]: every division is exact and
+    the result is checked, G adj = det I, before use.
+    """
     n = len(rows)
-    A = [[Fraction(x) for x in r] + [Fraction(int(i == j)) for j in range(n)] for i, r in enumerate(rows)]
-    det = Fraction(1)
+    A = [list(map(int, r)) + [int(i == j) for j in range(n)] for i, r in enumerate(rows)]
+    prev, sign = 1, 1
     for c in range(n):
         p = next((r for r in range(c, n) if A[r][c] != 0), None)
         if p is None:
             return 0, None
         if p != c:
             A[c], A[p] = A[p], A[c]
-            det = -det
-        det *= A[c][c]
-        inv = 1 / A[c][c]
-        A[c] = [x * inv for x in A[c]]
+            sign = -sign
+        pivot, pr = A[c][c], A[c]
         for r in range(n):
-            if r != c and A[r][c]:
-                f = A[r][c]
-                A[r] = [x - f * y for x, y in zip(A[r], A[c])]
-    d = int(det)
-    adj = [[x * d for x in row[n:]] for row in A]
-    if det.denominator != 1 or any(x.denominator != 1 for row in adj for x in row):
-        raise AssertionError("the adjugate of an integer matrix is not integral")
-    return d, [[int(x) for x in row] for row in adj]
+            if r != c:
+                f, row = A[r][c], A[r]
+                A[r] = [(pivot * x - f * y) // prev for x, y in zip(row, pr)]
+        prev = pivot
+    det = sign * prev
+    adj = [[sign * x for x in row[n:]] for row in A]
+    for i in range(n):
+        for j in range(n):
+            if sum(rows[i][k] * adj[k][j] for k in range(n)) != (det if i == j else 0):
+                raise AssertionError("the adjugate of an integer matrix is wrong")
+    return det, adj
 
 
 # -- 1. triangulation of a pointed cone -------------------------------------------------------

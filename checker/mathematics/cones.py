@@ -223,16 +223,30 @@ def _todd_product(bs, top):
     return poly
 
 
-def _direction(generators, e):
-    """An integer l with l . w != 0 for every generator w: on the moment curve (1, m, m^2, ...)."""
+def _direction(generators, e, m=1):
+    """(l, m): an integer l = (1, m, m^2, ...) with l . w != 0 for every generator w, m the first such."""
     gens = set(generators)
-    m = 1
     while True:
         check_time()
         ell = tuple(m ** k for k in range(e))
         if all(_dot(ell, w) != 0 for w in gens):
-            return ell
+            return ell, m
         m += 1
+
+
+def _terms(cones, ell, e):
+    """For each cone: (u_j . v, b_j = l . w_j, the coefficients c_k of its constant term as a polynomial in a)."""
+    terms = []
+    for eps, v, u, ws in cones:
+        check_time()
+        bs = [_dot(ell, w) for w in ws]
+        todd = _todd_product(bs, e)
+        scale = Fraction(eps * (-1) ** e)
+        for b in bs:
+            scale /= b
+        coeffs = [scale * todd[e - k] / factorial(k) for k in range(e + 1)]
+        terms.append((tuple(_dot(uj, v) for uj in u), tuple(bs), tuple(coeffs)))
+    return terms
 
 
 def decomposition_cost(rows, vertices) -> int:
@@ -258,12 +272,17 @@ def decomposition_cost(rows, vertices) -> int:
 
 
 class ConeSum:
-    """The signed unimodular cones of a full-dimensional rational polytope Q in R^e, ready to count tQ."""
+    """The signed unimodular cones of a full-dimensional rational polytope Q in R^e, ready to count tQ.
 
-    def __init__(self, e, terms, ell):
+    The constant term is taken for two directions l; a complete decomposition gives a Laurent
+    polynomial, whose value at 1 does not depend on l, so every count compares the two (a missing
+    or wrong cone shows as a disagreement or a non-integer, and raises instead of counting).
+    """
+
+    def __init__(self, e, sums, size):
         self.dimension = e
-        self.terms = terms              # (f_j = u_j . v as Fractions, b_j = l . w_j, coefficients c_0..c_e)
-        self.direction = ell
+        self.sums = sums                # [(l, terms)] for two directions
+        self.size = size
 
     @classmethod
     def of(cls, rows, vertices, spend: Spend = None) -> "ConeSum":
@@ -271,7 +290,7 @@ class ConeSum:
         vertices = [tuple(Fraction(x) for x in v) for v in vertices]
         e = len(vertices[0])
         if e == 0:
-            return cls(0, [], ())
+            return cls(0, [], 0)
         cones = []          # (sign, vertex, dual generators u, primal generators w)
         for v in vertices:
             tight = [tuple(a) for a, c in rows if _dot(a, v) == c]
@@ -280,33 +299,23 @@ class ConeSum:
             for simplex in triangulate(tight, e, spend):
                 for eps, u in unimodular_decomposition(simplex, spend):
                     cones.append((eps, v, u, polar_unimodular(u)))
-        ell = _direction([w for _, _, _, ws in cones for w in ws], e)
-        terms = []
-        for eps, v, u, ws in cones:
-            check_time()
-            bs = [_dot(ell, w) for w in ws]
-            todd = _todd_product(bs, e)
-            scale = Fraction(eps * (-1) ** e)
-            for b in bs:
-                scale /= b
-            coeffs = [scale * todd[e - k] / factorial(k) for k in range(e + 1)]
-            terms.append((tuple(_dot(uj, v) for uj in u), tuple(bs), tuple(coeffs)))
-        made = cls(e, terms, ell)
+        generators = [w for _, _, _, ws in cones for w in ws]
+        first, m = _direction(generators, e)
+        second, _ = _direction(generators, e, m + 1)
+        if spend:
+            spend(2 * len(cones) * e ** 2)
+        made = cls(e, [(first, _terms(cones, first, e)), (second, _terms(cones, second, e))], len(cones))
         if made.count(0) != 1:            # 0 Q = {0}: a cheap check of the whole decomposition
             raise AssertionError("the cone sum does not count the one point of 0 Q")
         return made
 
     def __len__(self):
-        return len(self.terms)
+        return self.size
 
-    def count(self, t: int, spend: Spend = None) -> int:
-        """The Ehrhart quasi-polynomial of Q at the integer t (|tQ cap Z^e| for t >= 0)."""
-        if self.dimension == 0:
-            return 1
-        if spend:
-            spend(len(self.terms) * self.dimension)
+    @staticmethod
+    def _value(terms, t: int) -> Fraction:
         total = Fraction(0)
-        for i, (fs, bs, coeffs) in enumerate(self.terms):
+        for i, (fs, bs, coeffs) in enumerate(terms):
             if i % 256 == 0:
                 check_time()
             a = 0
@@ -317,6 +326,15 @@ class ConeSum:
             for c in reversed(coeffs):
                 value = value * a + c
             total += value
-        if total.denominator != 1:
-            raise AssertionError(f"the cone sum at t = {t} is not an integer: {total}")
-        return int(total)
+        return total
+
+    def count(self, t: int, spend: Spend = None) -> int:
+        """The Ehrhart quasi-polynomial of Q at the integer t (|tQ cap Z^e| for t >= 0)."""
+        if self.dimension == 0:
+            return 1
+        if spend:
+            spend(2 * self.size * self.dimension)
+        values = [self._value(terms, t) for _, terms in self.sums]
+        if values[0] != values[1] or values[0].denominator != 1:
+            raise AssertionError(f"the cone sum at t = {t} is not one integer: {values}")
+        return int(values[0])

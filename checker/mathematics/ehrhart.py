@@ -363,8 +363,8 @@ def count(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False)
         reach = D * (e + 1) // 2 + D
         direct = _cost(fr, t)
         interpolation = D * (e + 1) * _cost(fr, reach)
-        if poly in _CONES or (min(direct, interpolation) > CONES_FROM
-                              and decomposition_cost(fr.rows, fr.vertices) < min(direct, interpolation)):
+        if poly in _CONES or min(direct, interpolation) > max(CONES_FROM, CONE_STEP * decomposition_cost(
+                fr.rows, fr.vertices)):
             return count_by_cones(poly, t, spend, interior)
         if t <= reach or direct <= interpolation:
             return _direct(poly, fr, t, interior, spend)
@@ -375,7 +375,10 @@ def count(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False)
 
 
 #: below this many estimated steps, enumeration or interpolation is used (cheap, no decomposition)
-CONES_FROM = 200_000
+CONES_FROM = 50_000
+#: one step of `cones.decomposition_cost` takes about as long as this many enumeration steps
+#: (measured on knapsack simplices and cubes in dimensions 3-5: 250 to 500)
+CONE_STEP = 300
 _CONES: dict = {}
 
 

@@ -246,3 +246,20 @@ def test_cone_sum_refuses_a_point_that_is_not_a_vertex():
     rows = [((-1, 0), 0), ((0, -1), 0), ((1, 1), 1)]
     with pytest.raises(AssertionError):
         ConeSum.of(rows, [(0, 0), (Fraction(1, 2), 0), (0, 1)])
+
+
+def test_a_missing_vertex_is_caught_not_counted():
+    # Brion's sum without one vertex cone is no Laurent polynomial: its "value at 1" depends on the
+    # direction l, so the two directions (or the check at t = 0) disagree and the engine raises
+    polys = [polytope_of_vertices([[0, 0, 0], [1, 0, 0], [0, 1, 0], [1, 1, 13]]),
+             polytope_of_inequalities(knapsack_simplex([3, 5, 7])),
+             polytope_of_inequalities([list(s) + [1] for s in itertools.product((1, -1), repeat=3)]),
+             polytope_of_inequalities(box(3, 0, 1) + [(1, 1, 1, Fraction(5, 2))]),
+             polytope_of_vertices([[0, 0], [1, Fraction(2, 3)], [3, 0]])]
+    for poly in polys:
+        fr = _frame_of(poly)
+        for i in range(len(fr.vertices)):
+            with pytest.raises(AssertionError):
+                partial = ConeSum.of(fr.rows, fr.vertices[:i] + fr.vertices[i + 1:])
+                for t in (1, 2, 3, 10**9):
+                    partial.count(t)

@@ -263,3 +263,12 @@ def test_a_missing_vertex_is_caught_not_counted():
                 partial = ConeSum.of(fr.rows, fr.vertices[:i] + fr.vertices[i + 1:])
                 for t in (1, 2, 3, 10**9):
                     partial.count(t)
+
+
+def test_a_claim_with_a_large_denominator_through_the_language():
+    from checker import check_text
+    a, t = [10**6 + 3, 10**6 + 33, 10**6 + 37], 10**9 + 7
+    text = "claim lattice_points_in({}, [[-1, 0, 0, 0], [0, -1, 0, 0], [0, 0, -1, 0], [{}, {}, {}, 1]]) = {}\n"
+    assert check_text(text.format(t, *a, _slices_by_floor_sums(a, t))).ok
+    report = check_text(text.format(t, *a, _slices_by_floor_sums(a, t) + 1))
+    assert not report.ok and report.failure.exact == _slices_by_floor_sums(a, t)

@@ -49,10 +49,11 @@ from typing import Callable, Optional
 from ..foundation.limits import DEFAULT_LIMITS, Limits
 from .polygons import polygon_count
 from .integer_lattices import hermite_columns, lll_reduce
-from .polyhedra import Polyhedron, nullspace
+from .polyhedra import Polyhedron, describe, nullspace
 from .cones import ConeSum, decomposition_cost
 
-__all__ = ["count", "constituents", "hstar", "evaluate", "budget", "Frame", "frame", "cone_sum", "count_by_cones"]
+__all__ = ["count", "constituents", "hstar", "evaluate", "budget", "Frame", "frame", "cone_sum", "count_by_cones",
+           "restricted_partitions"]
 
 Spend = Optional[Callable[[int], None]]
 
@@ -412,6 +413,35 @@ def count_by_cones(poly: Polyhedron, t: int, spend: Spend = None, interior: bool
         return 1 if e == 0 or not interior else 0
     sums = cone_sum(poly, spend)
     return (-1) ** e * sums.count(-t, spend) if interior else sums.count(t, spend)
+
+
+def restricted_partitions(n: int, parts, spend: Spend = None) -> int:
+    """p_A(n) = #{x in Z^k : x >= 0, a . x = n} for positive integer parts a, by Barvinok's cones.
+
+    The n-th dilate of the simplex {x >= 0 : a . x = 1} (Ehrhart 1967), counted in lattice
+    coordinates of its hyperplane; the cost grows with log a_i, not with a_i or n.
+    """
+    parts = [int(a) for a in parts]
+    if not parts or any(a <= 0 for a in parts):
+        raise ValueError("restricted_partitions needs positive parts")
+    if n < 0:
+        return 0
+    simplex = _simplex_of_parts(tuple(parts))
+    return count_by_cones(simplex, n, spend)
+
+
+_SIMPLICES: dict = {}
+
+
+def _simplex_of_parts(parts):
+    known = _SIMPLICES.get(parts)
+    if known is None:
+        k = len(parts)
+        known = describe([tuple(-int(j == i) for j in range(k)) + (0,) for i in range(k)], [parts + (1,)])
+        if len(_SIMPLICES) > 256:
+            _SIMPLICES.clear()
+        _SIMPLICES[parts] = known
+    return known
 
 
 def hstar(poly: Polyhedron, spend: Spend = None) -> list[int]:

@@ -272,3 +272,17 @@ def test_a_claim_with_a_large_denominator_through_the_language():
     assert check_text(text.format(t, *a, _slices_by_floor_sums(a, t))).ok
     report = check_text(text.format(t, *a, _slices_by_floor_sums(a, t) + 1))
     assert not report.ok and report.failure.exact == _slices_by_floor_sums(a, t)
+
+
+def test_restricted_partitions_entry_for_large_parts():
+    from checker.mathematics.ehrhart import restricted_partitions
+    # OEIS A001299: ways to make n cents with 1, 5, 10, 25 cents; 242 at n = 100 (from memory)
+    assert restricted_partitions(100, [1, 5, 10, 25]) == 242 == partitions_by_table(100, [1, 5, 10, 25])
+    assert [restricted_partitions(n, [3, 5, 7]) for n in range(30)] == [partitions_by_table(n, [3, 5, 7])
+                                                                       for n in range(30)]
+    # parts near 10^9: brute force over x1, x2 with x3 determined
+    a = [10**9 + 7, 10**9 + 9, 10**9 + 21]
+    for n in (300 * 10**9 + 7 * 100 + 9 * 100 + 21 * 100, 300 * 10**9 + 7 * 300, 123456789012):
+        brute_count = sum(1 for x1 in range(n // a[0] + 1) for x2 in range((n - x1 * a[0]) // a[1] + 1)
+                          if (n - x1 * a[0] - x2 * a[1]) % a[2] == 0)
+        assert restricted_partitions(n, a) == brute_count

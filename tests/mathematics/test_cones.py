@@ -28,24 +28,7 @@ from checker.mathematics.polytopes import lattice_points_inequalities, polytope_
 
 # -- independent references ---------------------------------------------------
 
-def brute(rows, eqs, t, radius, strict=False):
-    """Lattice points x in [-radius, radius]^d with a.x <= t b (a.x < t b when strict), e.x = t f."""
-    d = len((rows or eqs)[0]) - 1
-    n = 0
-    for x in itertools.product(range(-radius, radius + 1), repeat=d):
-        ok = all((sum(a * b for a, b in zip(r[:d], x)) < t * r[d]) if strict and any(r[:d]) else
-                 (sum(a * b for a, b in zip(r[:d], x)) <= t * r[d]) for r in rows)
-        if ok and all(sum(a * b for a, b in zip(r[:d], x)) == t * r[d] for r in eqs):
-            n += 1
-    return n
-
-
-def box(d, lo, hi):
-    rows = []
-    for i in range(d):
-        rows.append(tuple(int(j == i) for j in range(d)) + (hi,))
-        rows.append(tuple(-int(j == i) for j in range(d)) + (-lo,))
-    return rows
+from test_polytopes import box, brute  # noqa: E402  (enumeration of a box; the sibling test module)
 
 
 def knapsack_simplex(a):

@@ -20,7 +20,7 @@ from checker.mathematics import ehrhart
 from checker.mathematics.cones import ConeSum, _inverse, polar_unimodular, triangulate, unimodular_decomposition
 from checker.mathematics.integer_lattices import determinant
 from checker.mathematics.ehrhart import _direct, _frame_of, constituents, count, count_by_cones, evaluate
-from checker.mathematics.partitions import partitions_by_table
+from checker.mathematics.partitions import partitions, partitions_by_table
 from checker.mathematics.polygons import polygon_count
 from checker.mathematics.polyhedra import describe
 from checker.mathematics.polytopes import lattice_points_inequalities, polytope_of_inequalities, polytope_of_vertices
@@ -269,3 +269,12 @@ def test_restricted_partitions_entry_for_large_parts():
         brute_count = sum(1 for x1 in range(n // a[0] + 1) for x2 in range((n - x1 * a[0]) // a[1] + 1)
                           if (n - x1 * a[0] - x2 * a[1]) % a[2] == 0)
         assert restricted_partitions(n, a) == brute_count
+
+
+def test_a_six_dimensional_knapsack_simplex_against_the_partition_quasi_polynomial():
+    # {x >= 0 : (3, 5, 7, 11, 13, 1009) . x <= t} holds p_{1, 3, 5, 7, 11, 13, 1009}(t) points (Sylvester's
+    # waves, `partitions`); D = 3 5 7 11 13 1009
+    parts = [3, 5, 7, 11, 13, 1009]
+    poly = polytope_of_inequalities(knapsack_simplex(parts))
+    for t in (10**6 + 17, 10**30 + 1):
+        assert count_by_cones(poly, t) == partitions(t, [1] + parts)

@@ -278,3 +278,15 @@ def test_a_six_dimensional_knapsack_simplex_against_the_partition_quasi_polynomi
     poly = polytope_of_inequalities(knapsack_simplex(parts))
     for t in (10**6 + 17, 10**30 + 1):
         assert count_by_cones(poly, t) == partitions(t, [1] + parts)
+
+
+def test_interior_points_at_a_large_denominator_by_reciprocity():
+    # the interior of t {x >= 0 : a . x <= 1} holds the x >= 1 with a . x < t, i.e. (x - 1 >= 0)
+    # a . (x - 1) <= t - sum(a) - 1: the closed count at t - sum(a) - 1 (Macdonald 1971 made concrete)
+    from checker.mathematics.polytopes import interior_points_of
+    a = [10**6 + 3, 10**6 + 33, 10**6 + 37]
+    poly = polytope_of_inequalities(knapsack_simplex(a))
+    for t in (10**9 + 7, 5 * 10**7, sum(a), sum(a) + 1):
+        assert interior_points_of(t, poly) == count_by_cones(poly, t, interior=True) \
+            == (count_by_cones(poly, t - sum(a) - 1) if t > sum(a) else 0)
+    assert count_by_cones(poly, 10**9 + 7, interior=True) == _slices_by_floor_sums(a, 10**9 + 7 - sum(a) - 1)

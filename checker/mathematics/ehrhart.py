@@ -23,7 +23,10 @@ exact and nothing is counted twice.
 Large t.  With the counts at the e + 1 dilates of smallest |t| in each residue
 class (negative t by reciprocity, as interior counts), Lagrange interpolation
 gives every constituent, hence L_P at any t (Ehrhart's theorem makes this
-exact).  The Ehrhart series is sum_t L_P(t) z^t = h*(z) / (1 - z^D)^(e+1) with
+exact).  With a large D, one dilate is counted instead by Barvinok's signed
+decomposition into unimodular cones (`cones`; cost polynomial in the input size
+for fixed dimension, the same for every t), chosen by cost estimate in `count`.
+The Ehrhart series is sum_t L_P(t) z^t = h*(z) / (1 - z^D)^(e+1) with
 deg h* < D (e + 1); Stanley (1980) proved the coefficients of h* are >= 0.
 
 The unit cube [0, 1]^3 has (t + 1)^3 points; the standard 2-simplex in R^3 has
@@ -53,7 +56,7 @@ from .polyhedra import Polyhedron, describe, nullspace
 from .cones import ConeSum, decomposition_cost
 
 __all__ = ["count", "constituents", "hstar", "evaluate", "budget", "Frame", "frame", "cone_sum", "count_by_cones",
-           "restricted_partitions"]
+           "restricted_partitions", "restricted_partitions_cost"]
 
 Spend = Optional[Callable[[int], None]]
 
@@ -428,6 +431,18 @@ def restricted_partitions(n: int, parts, spend: Spend = None) -> int:
         return 0
     simplex = _simplex_of_parts(tuple(parts))
     return count_by_cones(simplex, n, spend)
+
+
+def restricted_partitions_cost(parts) -> int:
+    """Estimated cost of `restricted_partitions` (any n), in the plain steps of a table like O(n d).
+
+    The decomposition's own estimate (`cones.decomposition_cost`) times CONE_STEP; 0 once cached.
+    """
+    simplex = _simplex_of_parts(tuple(int(a) for a in parts))
+    if simplex in _CONES:
+        return 0
+    fr = _frame_of(simplex)
+    return CONE_STEP * decomposition_cost(fr.rows, fr.vertices)
 
 
 _SIMPLICES: dict = {}

@@ -258,9 +258,12 @@ def test_a_claim_with_a_large_denominator_through_the_language():
 
 
 def test_restricted_partitions_entry_for_large_parts():
-    from checker.mathematics.ehrhart import restricted_partitions
+    from checker.mathematics.ehrhart import restricted_partitions, restricted_partitions_cost
+    ehrhart._CONES.clear()
+    assert restricted_partitions_cost([1, 5, 10, 25]) > 0
     # OEIS A001299: ways to make n cents with 1, 5, 10, 25 cents; 242 at n = 100 (from memory)
     assert restricted_partitions(100, [1, 5, 10, 25]) == 242 == partitions_by_table(100, [1, 5, 10, 25])
+    assert restricted_partitions_cost([1, 5, 10, 25]) == 0           # the decomposition is kept
     assert [restricted_partitions(n, [3, 5, 7]) for n in range(30)] == [partitions_by_table(n, [3, 5, 7])
                                                                        for n in range(30)]
     # parts near 10^9: brute force over x1, x2 with x3 determined

@@ -293,3 +293,20 @@ def test_interior_points_at_a_large_denominator_by_reciprocity():
         assert interior_points_of(t, poly) == count_by_cones(poly, t, interior=True) \
             == (count_by_cones(poly, t - sum(a) - 1) if t > sum(a) else 0)
     assert count_by_cones(poly, 10**9 + 7, interior=True) == _slices_by_floor_sums(a, 10**9 + 7 - sum(a) - 1)
+
+
+@settings(max_examples=12, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(st.lists(st.integers(1000, 99_999), min_size=3, max_size=3),
+       st.lists(st.integers(-9, 99_999), min_size=3, max_size=3),
+       st.integers(1, 9), st.integers(0, 5 * 10**6))
+def test_large_denominators_against_slices_counted_by_floor_sums(a, b, c, t):
+    """{x >= 0 : a . x <= 1, b . x <= c/7}, D up to ~10^19: by cones, and slice by slice (x3 fixed) as
+    polygons, each counted by floor sums (the 2-dimensional path, which no cone touches)."""
+    rows = knapsack_simplex(a) + [tuple(b) + (Fraction(c, 7),)]
+    poly = polytope_of_inequalities(rows)
+    total = 0
+    for x3 in range(t // a[2] + 1):
+        plane = [(r[0], r[1], t * r[3] - r[2] * x3) for r in rows]
+        section = describe(plane, [])
+        total += count(section, 1) if not section.empty else 0
+    assert count_by_cones(poly, t) == total

@@ -23,7 +23,10 @@ exact and nothing is counted twice.
 Large t.  With the counts at the e + 1 dilates of smallest |t| in each residue
 class (negative t by reciprocity, as interior counts), Lagrange interpolation
 gives every constituent, hence L_P at any t (Ehrhart's theorem makes this
-exact).  The Ehrhart series is sum_t L_P(t) z^t = h*(z) / (1 - z^D)^(e+1) with
+exact).  With a large D, one dilate is counted instead by Barvinok's signed
+decomposition into unimodular cones (`cones`; cost polynomial in the input size
+for fixed dimension, the same for every t), chosen by cost estimate in `count`.
+The Ehrhart series is sum_t L_P(t) z^t = h*(z) / (1 - z^D)^(e+1) with
 deg h* < D (e + 1); Stanley (1980) proved the coefficients of h* are >= 0.
 
 The unit cube [0, 1]^3 has (t + 1)^3 points; the standard 2-simplex in R^3 has
@@ -49,9 +52,11 @@ from typing import Callable, Optional
 from ..foundation.limits import DEFAULT_LIMITS, Limits
 from .polygons import polygon_count
 from .integer_lattices import hermite_columns, lll_reduce
-from .polyhedra import Polyhedron, nullspace
+from .polyhedra import Polyhedron, describe, nullspace
+from .cones import ConeSum, decomposition_cost
 
-__all__ = ["count", "constituents", "hstar", "evaluate", "budget", "Frame", "frame"]
+__all__ = ["count", "constituents", "hstar", "evaluate", "budget", "Frame", "frame", "cone_sum", "count_by_cones",
+           "restricted_partitions", "restricted_partitions_cost"]
 
 Spend = Optional[Callable[[int], None]]
 
@@ -360,12 +365,98 @@ def count(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False)
     if known is None:
         # interpolation needs D (e + 1) counts at dilates up to about D (e + 1) / 2 + D
         reach = D * (e + 1) // 2 + D
-        if t <= reach or _cost(fr, t) <= D * (e + 1) * _cost(fr, reach):
+        direct = _cost(fr, t)
+        interpolation = D * (e + 1) * _cost(fr, reach)
+        if poly in _CONES or min(direct, interpolation) > max(CONES_FROM, CONE_STEP * decomposition_cost(
+                fr.rows, fr.vertices)):
+            return count_by_cones(poly, t, spend, interior)
+        if t <= reach or direct <= interpolation:
             return _direct(poly, fr, t, interior, spend)
         known = constituents(poly, spend)
     if interior:
         return int((-1) ** e * evaluate(known, -t))
     return int(evaluate(known, t))
+
+
+#: below this many estimated steps, enumeration or interpolation is used (cheap, no decomposition)
+CONES_FROM = 50_000
+#: one step of `cones.decomposition_cost` takes about as long as this many enumeration steps
+#: (measured on knapsack simplices and cubes in dimensions 3-5: 250 to 500)
+CONE_STEP = 300
+_CONES: dict = {}
+
+
+def cone_sum(poly: Polyhedron, spend: Spend = None) -> ConeSum:
+    """The signed unimodular cones of a non-empty polytope, in the lattice coordinates of its hull."""
+    known = _CONES.get(poly)
+    if known is None:
+        fr = _frame_of(poly)
+        known = ConeSum.of(fr.rows, fr.vertices, spend)
+        if len(_CONES) > 256:
+            _CONES.clear()
+        _CONES[poly] = known
+    return known
+
+
+def count_by_cones(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False) -> int:
+    """#(tP cap Z^d) (interior: of t relint P) by Barvinok's decomposition, any integer t >= 0.
+
+    Polynomial in the input size for fixed dimension: the decomposition does not depend
+    on t, and each dilate costs one pass over the unimodular cones (see `cones`).
+    """
+    if t < 0:
+        raise ValueError("count_by_cones counts dilates t >= 0")
+    if poly.empty:
+        return 0
+    fr = _frame_of(poly)
+    if any((t * w).denominator != 1 for w in fr.step):
+        return 0
+    e = poly.dimension
+    if t == 0:
+        return 1 if e == 0 or not interior else 0
+    sums = cone_sum(poly, spend)
+    return (-1) ** e * sums.count(-t, spend) if interior else sums.count(t, spend)
+
+
+def restricted_partitions(n: int, parts, spend: Spend = None) -> int:
+    """p_A(n) = #{x in Z^k : x >= 0, a . x = n} for positive integer parts a, by Barvinok's cones.
+
+    The n-th dilate of the simplex {x >= 0 : a . x = 1} (Ehrhart 1967), counted in lattice
+    coordinates of its hyperplane; the cost grows with log a_i, not with a_i or n.
+    """
+    parts = [int(a) for a in parts]
+    if not parts or any(a <= 0 for a in parts):
+        raise ValueError("restricted_partitions needs positive parts")
+    if n < 0:
+        return 0
+    simplex = _simplex_of_parts(tuple(parts))
+    return count_by_cones(simplex, n, spend)
+
+
+def restricted_partitions_cost(parts) -> int:
+    """Estimated cost of `restricted_partitions` (any n), in the plain steps of a table like O(n d).
+
+    The decomposition's own estimate (`cones.decomposition_cost`) times CONE_STEP; 0 once cached.
+    """
+    simplex = _simplex_of_parts(tuple(int(a) for a in parts))
+    if simplex in _CONES:
+        return 0
+    fr = _frame_of(simplex)
+    return CONE_STEP * decomposition_cost(fr.rows, fr.vertices)
+
+
+_SIMPLICES: dict = {}
+
+
+def _simplex_of_parts(parts):
+    known = _SIMPLICES.get(parts)
+    if known is None:
+        k = len(parts)
+        known = describe([tuple(-int(j == i) for j in range(k)) + (0,) for i in range(k)], [parts + (1,)])
+        if len(_SIMPLICES) > 256:
+            _SIMPLICES.clear()
+        _SIMPLICES[parts] = known
+    return known
 
 
 def hstar(poly: Polyhedron, spend: Spend = None) -> list[int]:

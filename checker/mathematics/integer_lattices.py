@@ -145,11 +145,27 @@ def lll_reduce(basis, delta=Fraction(3, 4)):
             q = round(mu[k][j])
             if q:
                 b[k] = [x - q * y for x, y in zip(b[k], b[j])]
-                mu, norms = gram_schmidt()
-        if norms[k] >= (delta - mu[k][k - 1] ** 2) * norms[k - 1]:
+                # b_k -= q b_j changes only row k of mu (b_j's own row has mu[j][j] = 1)
+                row, rj = mu[k], mu[j]
+                for i in range(j):
+                    row[i] -= q * rj[i]
+                row[j] -= q
+        m = mu[k][k - 1]
+        if norms[k] >= (delta - m ** 2) * norms[k - 1]:
             k += 1
         else:
+            # swapping b_k and b_(k-1) changes rows k-1, k and columns k-1, k only (the usual update
+            # formulas, exact in Fractions; Cohen, *A Course in Computational Algebraic Number Theory*, 2.6.3)
             b[k], b[k - 1] = b[k - 1], b[k]
-            mu, norms = gram_schmidt()
+            new = norms[k] + m * m * norms[k - 1]
+            mu[k][k - 1] = m * norms[k - 1] / new
+            norms[k] = norms[k - 1] * norms[k] / new
+            norms[k - 1] = new
+            for j in range(k - 1):
+                mu[k][j], mu[k - 1][j] = mu[k - 1][j], mu[k][j]
+            for i in range(k + 1, n):
+                t = mu[i][k]
+                mu[i][k] = mu[i][k - 1] - m * t
+                mu[i][k - 1] = t + mu[k][k - 1] * mu[i][k]
             k = max(k - 1, 1)
     return [tuple(v) for v in b]

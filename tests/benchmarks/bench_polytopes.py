@@ -16,13 +16,16 @@ from fractions import Fraction
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
+from checker.foundation.limits import Limits  # noqa: E402
 from checker.mathematics import ehrhart, polytopes  # noqa: E402
-from checker.mathematics.ehrhart import constituents, count  # noqa: E402
+from checker.mathematics.ehrhart import budget, constituents, count, count_by_cones, evaluate  # noqa: E402
+from tests.benchmarks.timing import best_of  # noqa: E402
 from checker.mathematics.polytopes import polytope_of_inequalities, polytope_of_vertices  # noqa: E402
 
 
 def cold(fn):
     ehrhart._QUASI.clear()
+    ehrhart._CONES.clear()
     ehrhart._FRAMES.clear()
     polytopes._POLYTOPES.clear()
     t = time.perf_counter()
@@ -61,7 +64,71 @@ def birkhoff(n):
     return ineqs, eqs
 
 
+def knapsack(a):
+    """{x >= 0 : a . x <= 1}: vertex denominator a1 ... ad for coprime a_i."""
+    d = len(a)
+    return [[-int(j == i) for j in range(d)] + [0] for i in range(d)] + [list(a) + [1]]
+
+
+def corner(primes, q):
+    """The box prod [0, 1/p_i] cut by sum x_i <= 2/q (q ~ p_i): not a simplex, denominator ~ q prod p_i."""
+    d = len(primes)
+    rows = [[int(j == i) for j in range(d)] + [Fraction(1, p)] for i, p in enumerate(primes)]
+    return rows + [[-int(j == i) for j in range(d)] + [0] for i in range(d)] + [[1] * d + [Fraction(2, q)]]
+
+
+def cones_cold(rows, t):
+    def run():
+        cold(lambda: None)
+        poly = polytope_of_inequalities(rows)
+        return count_by_cones(poly, t)
+    return run
+
+
+def interpolation_cold(rows, t):
+    def run():
+        cold(lambda: None)
+        poly = polytope_of_inequalities(rows)
+        return evaluate(constituents(poly, budget(Limits(terms=10**9), "benchmark")), t)
+    return run
+
+
+def large_denominators():
+    """Barvinok's cones at t = 10^30 (D ~ 10^6 and ~ 10^12), and against interpolation where it runs."""
+    print("large vertex denominators (Barvinok's signed decomposition), t = 10^30, cold, best of 3")
+    t = 10**30
+    cases = [("3-dim knapsack simplex a = (97, 101, 103)", knapsack([97, 101, 103])),
+             ("3-dim box cut by a plane, primes ~ 10^2", corner([101, 103, 107], 109)),
+             ("3-dim box cut by a plane, primes ~ 10^4", corner([10007, 10009, 10037], 10039)),
+             ("4-dim knapsack simplex a = (29, 31, 37, 41)", knapsack([29, 31, 37, 41])),
+             ("4-dim box cut by a hyperplane, primes ~ 10^1.2", corner([11, 13, 17, 19], 23)),
+             ("3-dim knapsack simplex a ~ 10^4", knapsack([10007, 10009, 10037])),
+             ("3-dim knapsack simplex a ~ 10^12", knapsack([10**12 + 39, 10**12 + 61, 10**12 + 63])),
+             ("4-dim knapsack simplex a ~ 10^3", knapsack([1009, 1013, 1019, 1021])),
+             ("4-dim box cut by a hyperplane, primes ~ 10^2.5", corner([311, 313, 317, 331], 337)),
+             ("4-dim knapsack simplex a ~ 10^12", knapsack([10**12 + 39, 10**12 + 61, 10**12 + 63,
+                                                           10**12 + 91]))]
+    for name, rows in cases:
+        poly = polytope_of_inequalities(rows)
+        seconds = best_of(cones_cold(rows, t), 3)
+        cones = len(ehrhart.cone_sum(poly))
+        print(f"  {name}: D = {poly.denominator:.3g}, {cones} unimodular cones, {seconds * 1e3:.1f} ms; "
+              f"interpolation would need {poly.denominator * (poly.dimension + 1):.3g} counts")
+    print("against interpolation where both run (t = 10^30)")
+    for name, rows in (("3-dim knapsack simplex a = (3, 5, 7), D = 105", knapsack([3, 5, 7])),
+                       ("3-dim knapsack simplex a = (5, 7, 11), D = 385", knapsack([5, 7, 11])),
+                       ("4-dim knapsack simplex a = (1, 2, 3, 5), D = 30", knapsack([1, 2, 3, 5])),
+                       ("4-dim box cut by a hyperplane, D = 30", corner([2, 3, 5, 1], 2))):
+        new = best_of(cones_cold(rows, t), 3)
+        old = best_of(interpolation_cold(rows, t), 1)
+        if cones_cold(rows, t)() != interpolation_cold(rows, t)():
+            raise AssertionError(f"{name}: the two methods disagree")
+        print(f"  {name}: cones {new * 1e3:.1f} ms, interpolation {old * 1e3:.1f} ms; "
+              f"interpolation / cones = {old / new:.0f}x")
+
+
 def main():
+    large_denominators()
     print("large dilates (Ehrhart interpolation)")
     for name, rows in (("4-cube", unit_cube(4)), ("4-simplex", simplex(4))):
         seconds, value = cold(lambda: count(polytope_of_inequalities(rows), 10**30))

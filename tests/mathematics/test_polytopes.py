@@ -13,6 +13,7 @@ from hypothesis import HealthCheck, given, settings, strategies as st
 
 from checker.foundation.errors import BudgetExceeded, DomainError
 from checker.foundation.limits import Limits
+from checker.mathematics import ehrhart
 from checker.mathematics.ehrhart import _direct, _frame_of, constituents, count, evaluate, hstar
 from checker.mathematics.integer_lattices import determinant, hermite_columns, kernel_basis, lll_reduce
 from checker.mathematics.polyhedra import convex_hull_polyhedron, describe, hull_description
@@ -308,9 +309,13 @@ def test_unbounded_input_is_refused_with_a_direction():
 
 def test_costly_requests_are_refused_not_hung():
     tight = Limits(terms=1000)
+    # D = 997 * 991: enumeration and interpolation are far over budget, Barvinok's cones are not.
+    # Points of [0, 1003]^4 with sum <= 1009, by inclusion-exclusion (common practice).
+    corner = box(4, 0, Fraction(1, 997)) + [(1, 1, 1, 1, Fraction(1, 991))]
+    assert lattice_points_inequalities(10**6, corner, limits=tight) == comb(1013, 4) - 4 * comb(9, 4)
+    ehrhart._CONES.clear()
     with pytest.raises(BudgetExceeded, match="terms"):
-        lattice_points_inequalities(10**6, box(4, 0, Fraction(1, 997)) + [(1, 1, 1, 1, Fraction(1, 991))],
-                                    limits=tight)
+        lattice_points_inequalities(10**6, corner, limits=Limits(terms=200))
     with pytest.raises(BudgetExceeded, match="terms"):
         lattice_points_inequalities(60, unit_cube(6) + [(1, -1, 1, -1, 1, -1, Fraction(1, 7))], limits=tight)
 

@@ -1,0 +1,302 @@
+"""Certificates that a polytope's vertex list and facet list are complete, checked exactly.
+
+Facets.  Let S be a finite set of rational points, G = conv S of dimension k,
+and L a list of rows a . x <= b (with equations N).  `check_hull` proves
+G = {x : N x = h, a . x <= b for a in L} from three facts: every point of S
+satisfies every row, N cuts out exactly the affine hull of S, and at every
+vertex v of G the rows of L that are facets of G through v are *all* the
+facets of G through v.  Every facet contains a vertex, so L holds every facet,
+and a polytope is the intersection of its affine hull with its facets
+(Minkowski-Weyl; Ziegler, *Lectures on Polytopes*, 2.15).  The facets through
+v are proved complete on the face lattice, each face known by the points of S
+on it (a bit mask):
+
+* simple vertex: j facets of a j-face meet only in v, and any j - 1 of them
+  meet in another point w; the w - v are then a basis on which the j facets
+  are the coordinate half-spaces, so the cone they cut out is spanned by
+  points of the face and no other facet passes through v;
+* otherwise every ridge through v of each listed facet (proved complete by the
+  same rule one dimension down) must lie in exactly two listed facets: the
+  facet-ridge graph of the vertex figure is connected (Balinski 1961 for its
+  polar), so a list closed under ridges holds every facet through v.
+
+A point of S whose listed facets meet in more than itself must be shown a
+convex combination of the other points there (it is not a vertex).
+
+Vertices.  For P = {x : A x <= b, E x = f} and a list V, `check_vertex_list`
+proves P = conv V: each v in V lies in P with tight rows of rank d (a vertex),
+P lies in the affine hull of V (Farkas multipliers y >= 0, z with
+y A + z E = n and y b + z f = n . v for each side of each equation n of the
+hull, found among the rows tight at a vertex), and the rows of P that are facets of
+conv V are complete for conv V (`check_hull`), so P is inside conv V.
+Emptiness carries y >= 0, z with y A + z E = 0 and y b + z f < 0 (Farkas 1902);
+unboundedness a point of P and a direction r != 0 with A r <= 0, E r = 0.
+
+Dimensions are lower bounds from ranks modulo a prime, which never exceed the
+rank over Q: a proper face of a j-face with rank j - 1 modulo p is a facet,
+and S's rank modulo p equal to d minus the rank of N modulo p is exact.  An
+unlucky prime only refuses.  Every failure raises CheckerBug: quasicert
+refuses rather than counts with a wrong list.
+
+The square's four vertices and four facets:
+
+>>> square = [(0, 0), (1, 0), (0, 1), (1, 1)]
+>>> rows = [(-1, 0, 0), (1, 0, 1), (0, -1, 0), (0, 1, 1)]
+>>> check_hull(square, rows, [], True)
+>>> check_hull(square, rows[:3], [], True)
+Traceback (most recent call last):
+...
+checker.foundation.errors.CheckerBug: the facet list of a polytope is incomplete at the vertex (0, 1): this is a bug in quasicert, please report it
+"""
+from __future__ import annotations
+
+from fractions import Fraction
+from math import lcm
+
+from ..foundation.errors import CheckerBug
+
+__all__ = ["check_hull", "check_vertex_list", "check_empty", "check_unbounded", "nonnegative_combination"]
+
+PRIME = (1 << 61) - 1
+
+
+def _dot(u, v):
+    return sum(a * b for a, b in zip(u, v))
+
+
+def _refuse(message: str):
+    raise CheckerBug(f"{message}: this is a bug in quasicert, please report it")
+
+
+def _text(v) -> str:
+    return "(" + ", ".join(str(x) for x in v) + ")"
+
+
+def _rank_mod_p(vectors) -> int:
+    """Rank modulo PRIME of integer vectors: at most their rank over Q."""
+    pivots: dict = {}
+    for v in vectors:
+        v = [x % PRIME for x in v]
+        for c, row in pivots.items():
+            if v[c]:
+                f = v[c]
+                v = [(x - f * y) % PRIME for x, y in zip(v, row)]
+        c = next((i for i, x in enumerate(v) if x), None)
+        if c is not None:
+            inv = pow(v[c], -1, PRIME)
+            row = [x * inv % PRIME for x in v]
+            for k, other in pivots.items():
+                if other[c]:
+                    f = other[c]
+                    pivots[k] = [(x - f * y) % PRIME for x, y in zip(other, row)]
+            pivots[c] = row
+    return len(pivots)
+
+
+class _Faces:
+    """Faces of conv S as bit masks of S, with affine dimensions from ranks modulo PRIME."""
+
+    def __init__(self, points):
+        den = lcm(*[c.denominator for p in points for c in p])
+        self.given = points
+        self.points = [tuple(int(c * den) for c in p) for p in points]
+        self.facets: list = []
+        self._rank: dict = {}
+        self._at: dict = {}
+
+    def rank(self, mask: int) -> int:
+        r = self._rank.get(mask)
+        if r is None:
+            idx = [i for i in range(len(self.points)) if mask >> i & 1]
+            p0 = self.points[idx[0]] if idx else ()
+            r = _rank_mod_p([[a - b for a, b in zip(self.points[i], p0)] for i in idx[1:]]) if idx else -1
+            self._rank[mask] = r
+        return r
+
+    def facets_through(self, face: int, j: int, v: int) -> list:
+        """The facets of the j-face through point v, proved complete (CheckerBug otherwise)."""
+        key = (face, v)
+        known = self._at.get(key)
+        if known is not None:
+            return known
+        bit = 1 << v
+        found = sorted({face & m for m in self.facets if m & bit and face & m != face})
+        found = [m for m in found if self.rank(m) >= j - 1]
+        if not self._simple(face, found, j, bit):
+            if j <= 2 or len(found) < j:
+                self._incomplete(v)
+            for h in found:
+                for ridge in self.facets_through(h, j - 1, v):
+                    if sum(1 for g in found if ridge & g == ridge) != 2:
+                        self._incomplete(v)
+        self._at[key] = found
+        return found
+
+    def _simple(self, face, found, j, bit) -> bool:
+        if len(found) != j:
+            return False
+        if j == 1:
+            return found[0] == bit
+        meet = face
+        for m in found:
+            meet &= m
+        if meet != bit:
+            return False
+        for i in range(j):
+            rest = face
+            for k, m in enumerate(found):
+                if k != i:
+                    rest &= m
+            if rest == bit:
+                return False
+        return True
+
+    def _incomplete(self, v):
+        _refuse(f"the facet list of a polytope is incomplete at the vertex {_text(self.given[v])}")
+
+
+def check_hull(points, inequalities, equations, every_row_a_facet: bool) -> None:
+    """Prove conv(points) = {x : a . x <= b (inequalities), a . x = b (equations)}; rows (a..., b).
+
+    With every_row_a_facet, each inequality must moreover define a facet.
+    """
+    pts = sorted({tuple(Fraction(c) for c in p) for p in points})
+    d = len(pts[0])
+    for p in pts:
+        if any(_dot(r[:d], p) > r[d] for r in inequalities) or any(_dot(r[:d], p) != r[d] for r in equations):
+            _refuse(f"the point {_text(p)} violates a computed facet or equation")
+    faces = _Faces(pts)
+    full = (1 << len(pts)) - 1
+    k = faces.rank(full)
+    if k != d - _rank_mod_p([r[:d] for r in equations]):
+        _refuse("the computed equations do not cut out the affine hull of the points")
+    facets = []
+    for r in inequalities:
+        mask = sum(1 << i for i, p in enumerate(pts) if _dot(r[:d], p) == r[d])
+        if mask != full and faces.rank(mask) == k - 1:
+            facets.append(mask)
+        elif every_row_a_facet and k > 0:
+            _refuse(f"the computed row {_text(r)} is not a facet of the hull")
+    faces.facets = facets
+    if k == 0:
+        return
+    for v, p in enumerate(pts):
+        bit = 1 << v
+        meet = full
+        for m in facets:
+            if m & bit:
+                meet &= m
+        if meet == bit:
+            faces.facets_through(full, k, v)
+        else:
+            others = [pts[i] for i in range(len(pts)) if meet >> i & 1 and i != v]
+            weights = nonnegative_combination([q + (1,) for q in others], p + (1,))
+            if weights is None or any(sum(w * q[i] for w, q in zip(weights, others)) != p[i] for i in range(d)) \
+                    or sum(weights) != 1 or min(weights) < 0:
+                faces._incomplete(v)
+
+
+def check_vertex_list(inequalities, equations, vertices, hull_equations) -> None:
+    """Prove {x : rows} = conv(vertices), each a vertex; hull_equations propose the affine hull of the vertices."""
+    d = len(vertices[0])
+    for v in vertices:
+        tight = [r[:d] for r in equations]
+        for r in inequalities:
+            s = _dot(r[:d], v)
+            if s > r[d]:
+                _refuse(f"a computed vertex {_text(v)} violates {_text(r)}")
+            if s == r[d]:
+                tight.append(r[:d])
+        if any(_dot(r[:d], v) != r[d] for r in equations) or _rank_mod_p(_scaled(tight)) != d:
+            _refuse(f"a computed vertex {_text(v)} is not a vertex")
+    v0 = min(vertices, key=lambda v: sum(1 for r in inequalities if _dot(r[:d], v) == r[d]))
+    tight = [r for r in inequalities if _dot(r[:d], v0) == r[d]]
+    for n in hull_equations:
+        for sign in (1, -1):
+            target = tuple(sign * x for x in n[:d]) + (sign * n[d],)
+            if not _derived(target, tight, equations, d):
+                _refuse(f"the polytope is not proved to lie on the hyperplane {_text(n)}")
+    check_hull(vertices, inequalities, hull_equations, False)
+
+
+def _scaled(rows):
+    out = []
+    for r in rows:
+        den = lcm(*[Fraction(c).denominator for c in r])
+        out.append([int(Fraction(c) * den) for c in r])
+    return out
+
+
+def _derived(target, inequalities, equations, d) -> bool:
+    """Farkas: target = sum y_i ineq_i + sum z_j eq_j (y >= 0) on a, with right side at most target's b."""
+    rows = list(inequalities) + list(equations)
+    columns = rows + [tuple(-x for x in r) for r in equations] + [(0,) * d + (1,)]
+    w = nonnegative_combination(columns, target)
+    if w is None or min(w) < 0:
+        return False
+    z = [(wi, r) for wi, r in zip(w, rows)] + [(-wi, r) for wi, r in zip(w[len(rows):], equations)]
+    return all(sum(wi * r[i] for wi, r in z) == target[i] for i in range(d)) and \
+        sum(wi * r[d] for wi, r in z) <= target[d]
+
+
+def check_empty(inequalities, equations, d) -> None:
+    """Prove {x : rows} empty by Farkas multipliers: y >= 0, z with y A + z E = 0 and y b + z f = -1."""
+    if not _derived((0,) * d + (-1,), inequalities, equations, d):
+        _refuse("the polytope was found empty without a proof")
+
+
+def check_unbounded(inequalities, equations, point, direction, whole_line: bool) -> None:
+    """Prove the point lies in {x : rows} and the direction (a nonzero vector) is a recession direction."""
+    d = len(point)
+    ok = any(direction) and all(_dot(r[:d], point) <= r[d] for r in inequalities) and \
+        all(_dot(r[:d], point) == r[d] and _dot(r[:d], direction) == 0 for r in equations) and \
+        all(_dot(r[:d], direction) == 0 if whole_line else _dot(r[:d], direction) <= 0 for r in inequalities)
+    if not ok:
+        _refuse(f"the polytope was found unbounded in the direction {_text(direction)} without a proof")
+
+
+def nonnegative_combination(columns, target):
+    """Weights w >= 0 with sum_i w_i columns_i = target, or None (phase one of the simplex method, Bland's rule).
+
+    Only a proposal: every caller verifies the weights exactly.
+
+    >>> nonnegative_combination([(1, 0), (0, 1), (1, 1)], (2, 3))
+    [Fraction(2, 1), Fraction(3, 1), Fraction(0, 1)]
+    """
+    m, n = len(target), len(columns)
+    rows = []
+    for r in range(m):
+        s = -1 if target[r] < 0 else 1
+        rows.append([Fraction(s * c[r]) for c in columns] + [Fraction(int(k == r)) for k in range(m)]
+                    + [Fraction(s * target[r])])
+    basis = [n + r for r in range(m)]
+    cost = [-sum(row[j] for row in rows) for j in range(n)] + [Fraction(0)] * m + [-sum(row[-1] for row in rows)]
+    while True:
+        enter = next((j for j in range(n + m) if cost[j] < 0), None)
+        if enter is None:
+            break
+        best = None
+        for r, row in enumerate(rows):
+            if row[enter] > 0:
+                ratio = row[-1] / row[enter]
+                if best is None or ratio < best[0] or (ratio == best[0] and basis[r] < basis[best[1]]):
+                    best = (ratio, r)
+        if best is None:
+            return None
+        r = best[1]
+        pivot = rows[r][enter]
+        rows[r] = [x / pivot for x in rows[r]]
+        for i in range(m):
+            if i != r and rows[i][enter]:
+                f = rows[i][enter]
+                rows[i] = [x - f * y for x, y in zip(rows[i], rows[r])]
+        f = cost[enter]
+        cost = [x - f * y for x, y in zip(cost, rows[r])]
+        basis[r] = enter
+    if cost[-1] != 0:
+        return None
+    w = [Fraction(0)] * n
+    for r, b in enumerate(basis):
+        if b < n:
+            w[b] = rows[r][-1]
+    return w

@@ -155,24 +155,42 @@ class _Faces:
         _refuse(f"the facet list of a polytope is incomplete at the vertex {_text(self.given[v])}")
 
 
+def _incidences(pts, inequalities, equations):
+    """Scaled integer points and, per inequality, the mask of points where it is tight; refuses a violation."""
+    d = len(pts[0])
+    den = lcm(*[c.denominator for p in pts for c in p])
+    ints = [tuple(int(c * den) for c in p) for p in pts]
+    masks = []
+    for r in list(inequalities) + list(equations):
+        mask = 0
+        for i, p in enumerate(ints):
+            s = r[d] * den - _dot(r[:d], p)
+            if s < 0 or (s and len(masks) >= len(inequalities)):
+                _refuse(f"the point {_text(pts[i])} violates the computed row {_text(r)}")
+            if s == 0:
+                mask |= 1 << i
+        masks.append(mask)
+    return masks[:len(inequalities)]
+
+
 def check_hull(points, inequalities, equations, every_row_a_facet: bool) -> None:
-    """Prove conv(points) = {x : a . x <= b (inequalities), a . x = b (equations)}; rows (a..., b).
+    """Prove conv(points) = {x : a . x <= b (inequalities), a . x = b (equations)}; integer rows (a..., b).
 
     With every_row_a_facet, each inequality must moreover define a facet.
     """
     pts = sorted({tuple(Fraction(c) for c in p) for p in points})
+    _prove_hull(pts, _incidences(pts, inequalities, equations), inequalities, equations, every_row_a_facet)
+
+
+def _prove_hull(pts, masks, inequalities, equations, every_row_a_facet):
     d = len(pts[0])
-    for p in pts:
-        if any(_dot(r[:d], p) > r[d] for r in inequalities) or any(_dot(r[:d], p) != r[d] for r in equations):
-            _refuse(f"the point {_text(p)} violates a computed facet or equation")
     faces = _Faces(pts)
     full = (1 << len(pts)) - 1
     k = faces.rank(full)
     if k != d - _rank_mod_p([r[:d] for r in equations]):
         _refuse("the computed equations do not cut out the affine hull of the points")
     facets = []
-    for r in inequalities:
-        mask = sum(1 << i for i, p in enumerate(pts) if _dot(r[:d], p) == r[d])
+    for r, mask in zip(inequalities, masks):
         if mask != full and faces.rank(mask) == k - 1:
             facets.append(mask)
         elif every_row_a_facet and k > 0:
@@ -197,34 +215,25 @@ def check_hull(points, inequalities, equations, every_row_a_facet: bool) -> None
 
 
 def check_vertex_list(inequalities, equations, vertices, hull_equations) -> None:
-    """Prove {x : rows} = conv(vertices), each a vertex; hull_equations propose the affine hull of the vertices."""
-    d = len(vertices[0])
-    for v in vertices:
-        tight = [r[:d] for r in equations]
-        for r in inequalities:
-            s = _dot(r[:d], v)
-            if s > r[d]:
-                _refuse(f"a computed vertex {_text(v)} violates {_text(r)}")
-            if s == r[d]:
-                tight.append(r[:d])
-        if any(_dot(r[:d], v) != r[d] for r in equations) or _rank_mod_p(_scaled(tight)) != d:
+    """Prove {x : rows} = conv(vertices), each a vertex; integer rows; hull_equations propose the affine hull."""
+    pts = sorted({tuple(Fraction(c) for c in v) for v in vertices})
+    d = len(pts[0])
+    masks = _incidences(pts, inequalities, equations)
+    tight_count = []
+    for i, v in enumerate(pts):
+        tight = [r[:d] for r in equations] + [r[:d] for r, m in zip(inequalities, masks) if m >> i & 1]
+        if _rank_mod_p(tight) != d:
             _refuse(f"a computed vertex {_text(v)} is not a vertex")
-    v0 = min(vertices, key=lambda v: sum(1 for r in inequalities if _dot(r[:d], v) == r[d]))
-    tight = [r for r in inequalities if _dot(r[:d], v0) == r[d]]
+        tight_count.append(len(tight))
+    i0 = tight_count.index(min(tight_count))
+    tight = [r for r, m in zip(inequalities, masks) if m >> i0 & 1]
     for n in hull_equations:
         for sign in (1, -1):
             target = tuple(sign * x for x in n[:d]) + (sign * n[d],)
             if not _derived(target, tight, equations, d):
                 _refuse(f"the polytope is not proved to lie on the hyperplane {_text(n)}")
-    check_hull(vertices, inequalities, hull_equations, False)
-
-
-def _scaled(rows):
-    out = []
-    for r in rows:
-        den = lcm(*[Fraction(c).denominator for c in r])
-        out.append([int(Fraction(c) * den) for c in r])
-    return out
+    _incidences(pts, [], hull_equations)
+    _prove_hull(pts, masks, inequalities, hull_equations, False)
 
 
 def _derived(target, inequalities, equations, d) -> bool:

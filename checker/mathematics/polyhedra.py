@@ -233,7 +233,7 @@ def describe(inequalities, equations, spend: Spend = None) -> Polyhedron:
         check_unbounded(ineqs, eqs, v, directions[0], False)
         raise DomainError(f"the polytope is unbounded: it contains the half-line from "
                           f"{_point(v)} in the direction {_point(directions[0])}")
-    check_vertex_list(ineqs, eqs, vertices, _affine_hull(vertices, d))
+    check_vertex_list(ineqs, eqs, vertices, _affine_hull(vertices, d), spend)
     return _analysed(d, ineqs, eqs, vertices)
 
 
@@ -274,7 +274,7 @@ def hull_description(points, spend: Spend = None):
             if any(r[:d]):
                 inequalities.append(tuple(r))
     inequalities, equations = sorted(set(inequalities)), sorted(set(equations))
-    check_hull(pts, inequalities, equations, True)
+    check_hull(pts, inequalities, equations, True, spend)
     return inequalities, equations
 
 

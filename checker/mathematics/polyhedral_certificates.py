@@ -54,6 +54,7 @@ from fractions import Fraction
 from math import lcm
 
 from ..foundation.errors import CheckerBug
+from ..foundation.limits import check_time
 
 __all__ = ["check_hull", "check_vertex_list", "check_empty", "check_unbounded", "nonnegative_combination"]
 
@@ -96,7 +97,8 @@ def _rank_mod_p(vectors) -> int:
 class _Faces:
     """Faces of conv S as bit masks of S, with affine dimensions from ranks modulo PRIME."""
 
-    def __init__(self, points):
+    def __init__(self, points, spend=None):
+        self.spend = spend
         den = lcm(*[c.denominator for p in points for c in p])
         self.given = points
         self.points = [tuple(int(c * den) for c in p) for p in points]
@@ -119,6 +121,9 @@ class _Faces:
         known = self._at.get(key)
         if known is not None:
             return known
+        check_time()
+        if self.spend:
+            self.spend(len(self.facets) + 1)
         bit = 1 << v
         found = sorted({face & m for m in self.facets if m & bit and face & m != face})
         found = [m for m in found if self.rank(m) >= j - 1]
@@ -173,18 +178,18 @@ def _incidences(pts, inequalities, equations):
     return masks[:len(inequalities)]
 
 
-def check_hull(points, inequalities, equations, every_row_a_facet: bool) -> None:
+def check_hull(points, inequalities, equations, every_row_a_facet: bool, spend=None) -> None:
     """Prove conv(points) = {x : a . x <= b (inequalities), a . x = b (equations)}; integer rows (a..., b).
 
     With every_row_a_facet, each inequality must moreover define a facet.
     """
     pts = sorted({tuple(Fraction(c) for c in p) for p in points})
-    _prove_hull(pts, _incidences(pts, inequalities, equations), inequalities, equations, every_row_a_facet)
+    _prove_hull(pts, _incidences(pts, inequalities, equations), inequalities, equations, every_row_a_facet, spend)
 
 
-def _prove_hull(pts, masks, inequalities, equations, every_row_a_facet):
+def _prove_hull(pts, masks, inequalities, equations, every_row_a_facet, spend):
     d = len(pts[0])
-    faces = _Faces(pts)
+    faces = _Faces(pts, spend)
     full = (1 << len(pts)) - 1
     k = faces.rank(full)
     if k != d - _rank_mod_p([r[:d] for r in equations]):
@@ -214,7 +219,7 @@ def _prove_hull(pts, masks, inequalities, equations, every_row_a_facet):
                 faces._incomplete(v)
 
 
-def check_vertex_list(inequalities, equations, vertices, hull_equations) -> None:
+def check_vertex_list(inequalities, equations, vertices, hull_equations, spend=None) -> None:
     """Prove {x : rows} = conv(vertices), each a vertex; integer rows; hull_equations propose the affine hull."""
     pts = sorted({tuple(Fraction(c) for c in v) for v in vertices})
     d = len(pts[0])
@@ -233,7 +238,7 @@ def check_vertex_list(inequalities, equations, vertices, hull_equations) -> None
             if not _derived(target, tight, equations, d):
                 _refuse(f"the polytope is not proved to lie on the hyperplane {_text(n)}")
     _incidences(pts, [], hull_equations)
-    _prove_hull(pts, masks, inequalities, hull_equations, False)
+    _prove_hull(pts, masks, inequalities, hull_equations, False, spend)
 
 
 def _derived(target, inequalities, equations, d) -> bool:
@@ -281,6 +286,7 @@ def nonnegative_combination(columns, target):
     basis = [n + r for r in range(m)]
     cost = [-sum(row[j] for row in rows) for j in range(n)] + [Fraction(0)] * m + [-sum(row[-1] for row in rows)]
     while True:
+        check_time()
         enter = next((j for j in range(n + m) if cost[j] < 0), None)
         if enter is None:
             break

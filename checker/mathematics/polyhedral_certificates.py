@@ -3,25 +3,23 @@
 Facets.  Let S be a finite set of rational points, G = conv S of dimension k,
 and L a list of rows a . x <= b (with equations N).  `check_hull` proves
 G = {x : N x = h, a . x <= b for a in L} from three facts: every point of S
-satisfies every row, N cuts out exactly the affine hull of S, and at every
-vertex v of G the rows of L that are facets of G through v are *all* the
-facets of G through v.  Every facet contains a vertex, so L holds every facet,
-and a polytope is the intersection of its affine hull with its facets
-(Minkowski-Weyl; Ziegler, *Lectures on Polytopes*, 2.15).  The facets through
-v are proved complete on the face lattice, each face known by the points of S
-on it (a bit mask):
+satisfies every row, N cuts out exactly the affine hull of S, and the rows
+of L that are facets of G are all the facets of G; a polytope is the
+intersection of its affine hull with its facets (Minkowski-Weyl; Ziegler,
+*Lectures on Polytopes*, 2.15).  Each face is known by the points of S on it
+(a bit mask); the facets of a j-face are its proper faces cut out by rows of
+L with dimension j - 1, and that list is proved complete by one of:
 
-* simple vertex: j facets of a j-face meet only in v, and any j - 1 of them
-  meet in another point w; the w - v are then a basis on which the j facets
-  are the coordinate half-spaces, so the cone they cut out is spanned by
-  points of the face and no other facet passes through v;
-* otherwise every ridge through v of each listed facet (proved complete by the
-  same rule one dimension down) must lie in exactly two listed facets: the
-  facet-ridge graph of the vertex figure is connected (Balinski 1961 for its
-  polar), so a list closed under ridges holds every facet through v.
+* simple vertices: at every point v of the face, j listed facets meet only
+  in v and any j - 1 of them meet in another point w; the w - v are then a
+  basis on which the j facets are the coordinate half-spaces, so no other
+  facet passes through v, and every facet has a vertex;
+* ridge closure: every ridge of each listed facet (whose own facet list is
+  proved complete one dimension down) lies in exactly two listed facets; the
+  facet-ridge graph of a polytope of dimension >= 2 is connected (it is the
+  graph of the polar, Balinski 1961), so a list closed under ridges is all.
 
-A point of S whose listed facets meet in more than itself must be shown a
-convex combination of the other points there (it is not a vertex).
+A segment has exactly two facets, its ends.
 
 Vertices.  For P = {x : A x <= b, E x = f} and a list V, `check_vertex_list`
 proves P = conv V: each v in V lies in P with tight rows of rank d (a vertex),
@@ -46,7 +44,7 @@ The square's four vertices and four facets:
 >>> check_hull(square, rows[:3], [], True)
 Traceback (most recent call last):
 ...
-checker.foundation.errors.CheckerBug: the facet list of a polytope is incomplete at the vertex (0, 1): this is a bug in quasicert, please report it
+checker.foundation.errors.CheckerBug: the facet list of a polytope is incomplete on a face through (0, 0): this is a bug in quasicert, please report it
 """
 from __future__ import annotations
 
@@ -104,7 +102,7 @@ class _Faces:
         self.points = [tuple(int(c * den) for c in p) for p in points]
         self.facets: list = []
         self._rank: dict = {}
-        self._at: dict = {}
+        self._complete: dict = {}
 
     def rank(self, mask: int) -> int:
         r = self._rank.get(mask)
@@ -115,26 +113,28 @@ class _Faces:
             self._rank[mask] = r
         return r
 
-    def facets_through(self, face: int, j: int, v: int) -> list:
-        """The facets of the j-face through point v, proved complete (CheckerBug otherwise)."""
-        key = (face, v)
-        known = self._at.get(key)
+    def facets_of(self, face: int, j: int) -> list:
+        """The facets of the j-face (j >= 1), proved complete (CheckerBug otherwise)."""
+        known = self._complete.get(face)
         if known is not None:
             return known
         check_time()
         if self.spend:
             self.spend(len(self.facets) + 1)
-        bit = 1 << v
-        found = sorted({face & m for m in self.facets if m & bit and face & m != face})
+        found = sorted({face & m for m in self.facets if face & m != face})
         found = [m for m in found if self.rank(m) >= j - 1]
-        if not self._simple(face, found, j, bit):
-            if j <= 2 or len(found) < j:
-                self._incomplete(v)
+        if j == 1:
+            if len(found) != 2:
+                self._incomplete(face)
+        elif not all(self._simple(face, [h for h in found if h >> v & 1], j, 1 << v)
+                     for v in range(len(self.points)) if face >> v & 1):
+            if len(found) <= j:
+                self._incomplete(face)
             for h in found:
-                for ridge in self.facets_through(h, j - 1, v):
+                for ridge in self.facets_of(h, j - 1):
                     if sum(1 for g in found if ridge & g == ridge) != 2:
-                        self._incomplete(v)
-        self._at[key] = found
+                        self._incomplete(face)
+        self._complete[face] = found
         return found
 
     def _simple(self, face, found, j, bit) -> bool:
@@ -156,8 +156,9 @@ class _Faces:
                 return False
         return True
 
-    def _incomplete(self, v):
-        _refuse(f"the facet list of a polytope is incomplete at the vertex {_text(self.given[v])}")
+    def _incomplete(self, face):
+        v = next(i for i in range(len(self.points)) if face >> i & 1)
+        _refuse(f"the facet list of a polytope is incomplete on a face through {_text(self.given[v])}")
 
 
 def _incidences(pts, inequalities, equations):
@@ -201,22 +202,8 @@ def _prove_hull(pts, masks, inequalities, equations, every_row_a_facet, spend):
         elif every_row_a_facet and k > 0:
             _refuse(f"the computed row {_text(r)} is not a facet of the hull")
     faces.facets = facets
-    if k == 0:
-        return
-    for v, p in enumerate(pts):
-        bit = 1 << v
-        meet = full
-        for m in facets:
-            if m & bit:
-                meet &= m
-        if meet == bit:
-            faces.facets_through(full, k, v)
-        else:
-            others = [pts[i] for i in range(len(pts)) if meet >> i & 1 and i != v]
-            weights = nonnegative_combination([q + (1,) for q in others], p + (1,))
-            if weights is None or any(sum(w * q[i] for w, q in zip(weights, others)) != p[i] for i in range(d)) \
-                    or sum(weights) != 1 or min(weights) < 0:
-                faces._incomplete(v)
+    if k > 0:
+        faces.facets_of(full, k)
 
 
 def check_vertex_list(inequalities, equations, vertices, hull_equations, spend=None) -> None:

@@ -71,10 +71,16 @@ def _text(v) -> str:
     return "(" + ", ".join(str(x) for x in v) + ")"
 
 
-def _rank_mod_p(vectors) -> int:
-    """Rank modulo PRIME of integer vectors: at most their rank over Q."""
+def _rank_mod_p(vectors, enough=None) -> int:
+    """Rank modulo PRIME of integer vectors (at most their rank over Q), or `enough` once it is reached."""
+    return len(_pivots_mod_p(vectors, enough))
+
+
+def _pivots_mod_p(vectors, enough=None) -> dict:
     pivots: dict = {}
     for v in vectors:
+        if len(pivots) == enough:
+            break
         v = [x % PRIME for x in v]
         for c, row in pivots.items():
             if v[c]:
@@ -89,7 +95,7 @@ def _rank_mod_p(vectors) -> int:
                     f = other[c]
                     pivots[k] = [(x - f * y) % PRIME for x, y in zip(other, row)]
             pivots[c] = row
-    return len(pivots)
+    return pivots
 
 
 class _Faces:
@@ -99,18 +105,25 @@ class _Faces:
         self.spend = spend
         den = lcm(*[c.denominator for p in points for c in p])
         self.given = points
-        self.points = [tuple(int(c * den) for c in p) for p in points]
+        ints = [tuple(int(c * den) for c in p) for p in points]
+        # coordinates on which the projection of the affine hull is one to one (modulo PRIME, hence over Q)
+        keep = sorted(_pivots_mod_p([[a - b for a, b in zip(p, ints[0])] for p in ints[1:]]))
+        self.points = [tuple(p[c] for c in keep) for p in ints]
         self.facets: list = []
         self._rank: dict = {}
+        self._enough: dict = {}
         self._complete: dict = {}
 
-    def rank(self, mask: int) -> int:
+    def rank(self, mask: int, enough=None) -> int:
+        """The rank modulo PRIME of the points in mask (affine; -1 for none), or `enough` once reached."""
         r = self._rank.get(mask)
-        if r is None:
+        if r is None or (r == self._enough.get(mask) and (enough is None or enough > r)):
             idx = [i for i in range(len(self.points)) if mask >> i & 1]
             p0 = self.points[idx[0]] if idx else ()
-            r = _rank_mod_p([[a - b for a, b in zip(self.points[i], p0)] for i in idx[1:]]) if idx else -1
+            r = _rank_mod_p([[a - b for a, b in zip(self.points[i], p0)] for i in idx[1:]], enough) \
+                if idx else -1
             self._rank[mask] = r
+            self._enough[mask] = enough
         return r
 
     def facets_of(self, face: int, j: int) -> list:
@@ -122,7 +135,7 @@ class _Faces:
         if self.spend:
             self.spend(len(self.facets) + 1)
         found = sorted({face & m for m in self.facets if face & m != face})
-        found = [m for m in found if self.rank(m) >= j - 1]
+        found = [m for m in found if self.rank(m, j - 1) >= j - 1]
         if j == 1:
             if len(found) != 2:
                 self._incomplete(face)
@@ -130,10 +143,13 @@ class _Faces:
                      for v in range(len(self.points)) if face >> v & 1):
             if len(found) <= j:
                 self._incomplete(face)
+            # by induction a ridge is listed under exactly the listed facets that hold it
+            times: dict = {}
             for h in found:
                 for ridge in self.facets_of(h, j - 1):
-                    if sum(1 for g in found if ridge & g == ridge) != 2:
-                        self._incomplete(face)
+                    times[ridge] = times.get(ridge, 0) + 1
+            if any(n != 2 for n in times.values()):
+                self._incomplete(face)
         self._complete[face] = found
         return found
 
@@ -197,7 +213,7 @@ def _prove_hull(pts, masks, inequalities, equations, every_row_a_facet, spend):
         _refuse("the computed equations do not cut out the affine hull of the points")
     facets = []
     for r, mask in zip(inequalities, masks):
-        if mask != full and faces.rank(mask) == k - 1:
+        if mask != full and faces.rank(mask, k - 1) == k - 1:
             facets.append(mask)
         elif every_row_a_facet and k > 0:
             _refuse(f"the computed row {_text(r)} is not a facet of the hull")

@@ -98,14 +98,19 @@ def _pivots_mod_p(vectors, enough=None) -> dict:
     return pivots
 
 
+def _scaled_points(pts):
+    """The points times their common denominator: integers with the same affine relations."""
+    den = lcm(*[c.denominator for p in pts for c in p])
+    return [tuple(int(c * den) for c in p) for p in pts]
+
+
 class _Faces:
     """Faces of conv S as bit masks of S, with affine dimensions from ranks modulo PRIME."""
 
     def __init__(self, points, spend=None):
         self.spend = spend
-        den = lcm(*[c.denominator for p in points for c in p])
         self.given = points
-        ints = [tuple(int(c * den) for c in p) for p in points]
+        ints = _scaled_points(points)
         # coordinates on which the projection of the affine hull is one to one (modulo PRIME, hence over Q)
         keep = sorted(_pivots_mod_p([[a - b for a, b in zip(p, ints[0])] for p in ints[1:]]))
         self.points = [tuple(p[c] for c in keep) for p in ints]
@@ -181,7 +186,7 @@ def _incidences(pts, inequalities, equations):
     """Scaled integer points and, per inequality, the mask of points where it is tight; refuses a violation."""
     d = len(pts[0])
     den = lcm(*[c.denominator for p in pts for c in p])
-    ints = [tuple(int(c * den) for c in p) for p in pts]
+    ints = _scaled_points(pts)
     masks = []
     for r in list(inequalities) + list(equations):
         mask = 0
@@ -233,6 +238,11 @@ def check_vertex_list(inequalities, equations, vertices, hull_equations, spend=N
         if _rank_mod_p(tight) != d:
             _refuse(f"a computed vertex {_text(v)} is not a vertex")
         tight_count.append(len(tight))
+    ints = _scaled_points(pts)
+    if _rank_mod_p([[a - b for a, b in zip(p, ints[0])] for p in ints[1:]]) + \
+            _rank_mod_p([r[:d] for r in equations]) == d:
+        # the equations alone cut out a space of the vertices' dimension: it is their affine hull
+        hull_equations = equations
     i0 = tight_count.index(min(tight_count))
     tight = [r for r, m in zip(inequalities, masks) if m >> i0 & 1]
     for n in hull_equations:

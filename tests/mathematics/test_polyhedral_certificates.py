@@ -125,6 +125,10 @@ CASES = {
     "4-cross-polytope": (cross(4), []),
     "B_3": birkhoff(3),
     "triangle in R^3": ([(-1, 0, 0, 0), (0, -1, 0, 0), (0, 0, -1, 0)], [(1, 1, 1, 1)]),
+    # implicit equations x + y <= 1, x + y >= 1: the affine hull needs Farkas multipliers
+    "triangle by implicit equation": ([(-1, 0, 0, 0), (0, -1, 0, 0), (0, 0, -1, 0), (1, 1, 1, 1),
+                                       (-1, -1, -1, -1)], []),
+    "segment by implicit equations": ([(1, 0, 0), (-1, 0, 0), (0, 1, 1), (0, -1, 0)], []),
 }
 HULLS = {
     "3-cube": cube_points(3),

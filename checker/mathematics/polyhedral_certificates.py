@@ -243,6 +243,15 @@ def check_vertex_list(inequalities, equations, vertices, hull_equations, spend=N
             _rank_mod_p([r[:d] for r in equations]) == d:
         # the equations alone cut out a space of the vertices' dimension: it is their affine hull
         hull_equations = equations
+    else:
+        _prove_on_hull(pts, masks, tight_count, inequalities, equations, hull_equations)
+    _prove_hull(pts, masks, inequalities, hull_equations, False, spend)
+
+
+def _prove_on_hull(pts, masks, tight_count, inequalities, equations, hull_equations):
+    """Farkas multipliers from the rows tight at one vertex: the polytope lies on each hull equation."""
+    d = len(pts[0])
+    _incidences(pts, [], hull_equations)
     i0 = tight_count.index(min(tight_count))
     tight = [r for r, m in zip(inequalities, masks) if m >> i0 & 1]
     for n in hull_equations:
@@ -250,8 +259,6 @@ def check_vertex_list(inequalities, equations, vertices, hull_equations, spend=N
             target = tuple(sign * x for x in n[:d]) + (sign * n[d],)
             if not _derived(target, tight, equations, d):
                 _refuse(f"the polytope is not proved to lie on the hyperplane {_text(n)}")
-    _incidences(pts, [], hull_equations)
-    _prove_hull(pts, masks, inequalities, hull_equations, False, spend)
 
 
 def _derived(target, inequalities, equations, d) -> bool:

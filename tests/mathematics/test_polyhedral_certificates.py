@@ -293,7 +293,7 @@ def point_sets(draw):
     return [tuple(Fraction(c) for c in p) for p in points]
 
 
-@settings(max_examples=80, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=50, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(point_sets())
 def test_right_lists_are_always_proved(points):
     d = len(points[0])
@@ -340,3 +340,102 @@ def test_unbounded_and_lower_dimensional_inputs_keep_their_verdicts():
         describe([(-1, 0, 0), (1, 0, 1), (0, -1, 0)], [])
     poly = describe([(-1, 0, 0, 0), (0, -1, 0, 0), (0, 0, -1, 0), (1, 1, 1, 2)], [(1, -1, 0, 0)])
     assert poly.dimension == 2 and len(poly.vertices) == 3
+
+
+FAMILIES = {
+    # name: (points, number of vertices, number of facets), counts from Coxeter's Table I and Ziegler
+    "octahedron": (cross_points(3), 6, 8),
+    "square pyramid": (pyramid_points(3), 5, 5),
+    "pyramid over the 3-cube": (pyramid_points(4), 9, 7),
+    "B_3": (permutation_matrices(3), 6, 9),
+    "4-cross-polytope": (cross_points(4), 8, 16),
+    "5-cross-polytope": (cross_points(5), 10, 32),
+    "24-cell": (twenty_four_cell(), 24, 24),
+    "segment": ([(0,), (2,)], 2, 2),
+}
+
+
+@st.composite
+def embedded_families(draw):
+    """A family polytope mapped into R^(e + extra) by a random injective integer map, translated, with
+    random points of it added (midpoints and centroids: no new vertices)."""
+    name = draw(st.sampled_from(sorted(FAMILIES)))
+    points, n_vertices, n_facets = FAMILIES[name]
+    e = len(points[0])
+    extra = draw(st.integers(0, 1))
+    below = draw(st.lists(st.integers(-2, 2), min_size=e * e, max_size=e * e))
+    matrix = [[below[i * e + j] if j < i else int(i == j) for j in range(e)] for i in range(e)]   # det 1
+    matrix += draw(st.lists(st.lists(st.integers(-2, 2), min_size=e, max_size=e), min_size=extra,
+                            max_size=extra))
+    order = draw(st.permutations(range(e + extra)))
+    matrix = [matrix[i] for i in order]
+    shift = draw(st.lists(st.fractions(-2, 2, max_denominator=3), min_size=e + extra, max_size=e + extra))
+    image = [tuple(sum(Fraction(m) * c for m, c in zip(row, p)) + s for row, s in zip(matrix, shift))
+             for p in points]
+    for i, j in draw(st.lists(st.tuples(st.integers(0, len(image) - 1), st.integers(0, len(image) - 1)),
+                              max_size=4)):
+        image.append(tuple((a + b) / 2 for a, b in zip(image[i], image[j])))
+    image.append(tuple(sum(c) / len(points) for c in zip(*image[:len(points)])))
+    return image, n_vertices, n_facets
+
+
+@settings(max_examples=20, deadline=None,
+          suppress_health_check=[HealthCheck.too_slow, HealthCheck.large_base_example])
+@given(embedded_families())
+def test_degenerate_and_lower_dimensional_families_are_proved(case):
+    points, n_vertices, n_facets = case
+    facets, eqs = hull_description(points)                  # the facet proof runs inside
+    assert len(facets) == n_facets
+    poly = convex_hull_polyhedron(points)
+    assert len(poly.vertices) == n_vertices
+    assert set(describe(facets, eqs).vertices) == set(poly.vertices)   # the vertex proof runs inside
+
+
+# -- an adversary choosing wrong lists ------------------------------------------------------------
+
+@st.composite
+def sublists(draw):
+    d = draw(st.integers(1, 3))
+    points = draw(st.lists(st.tuples(*[st.integers(-2, 2)] * d), min_size=d + 1, max_size=7))
+    points += draw(st.sampled_from([[], cube_points(d), cross_points(d)]))
+    pts = sorted(set(frac(points)))
+    keep = draw(st.lists(st.booleans(), min_size=64, max_size=64))
+    loosen = draw(st.lists(st.integers(0, 2), min_size=64, max_size=64))
+    return pts, keep, loosen
+
+
+@settings(max_examples=80, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(sublists())
+def test_a_proved_facet_list_is_never_short(case):
+    # any list of valid rows the proof accepts holds every facet (compared with the brute-force facets)
+    pts, keep, loosen = case
+    d = len(pts[0])
+    if rank([[a - b for a, b in zip(p, pts[0])] for p in pts[1:]], d) < d:
+        return
+    facets = sorted(brute_facets(pts))
+    chosen = [f[:d] + (f[d] + loosen[i],) for i, f in enumerate(facets) if keep[i % 64]]
+    try:
+        check_hull(pts, chosen, [], False)
+    except CheckerBug:
+        assert not set(facets) <= set(chosen)
+    else:
+        assert set(facets) <= set(chosen)
+
+
+@settings(max_examples=150, deadline=None)
+@given(boxed_inequalities(), st.lists(st.booleans(), min_size=64, max_size=64))
+def test_a_proved_vertex_list_is_never_short(case, keep):
+    d, rows = case
+    ints = [integer_row(r) for r in rows if any(r[:d])]
+    poly = describe(ints, [])
+    if poly.empty:
+        return
+    chosen = [v for i, v in enumerate(poly.vertices) if keep[i % 64]]
+    if not chosen:
+        return
+    try:
+        vertex_proof(ints, [], chosen)
+    except CheckerBug:
+        assert len(chosen) < len(poly.vertices)
+    else:
+        assert len(chosen) == len(poly.vertices)

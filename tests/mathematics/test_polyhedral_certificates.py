@@ -439,3 +439,41 @@ def test_a_proved_vertex_list_is_never_short(case, keep):
         assert len(chosen) < len(poly.vertices)
     else:
         assert len(chosen) == len(poly.vertices)
+
+
+# -- polygons: the hull and the boundary chains of the floor-sum count ----------------------------
+
+def test_polygon_hull_and_chains_mutants_are_refused():
+    from checker.mathematics.polygons import _chains, _check_chains, _check_polygon, convex_hull
+    pts = frac([(0, 0), (3, 0), (4, 2), (2, 4), (0, 3), (1, 1), (2, 2)])
+    hull = convex_hull(pts)
+    assert len(hull) == 5                               # the pentagon's five corners (by hand)
+    for i in range(len(hull)):                          # a corner left out
+        with pytest.raises(CheckerBug):
+            _check_polygon(pts, hull[:i] + hull[i + 1:])
+    with pytest.raises(CheckerBug):                     # clockwise
+        _check_polygon(pts, hull[::-1])
+    with pytest.raises(CheckerBug):                     # a corner twice
+        _check_polygon(pts, hull + hull[:1])
+    lower, upper = _chains(pts)
+    for chain, other in ((lower, upper), (upper, lower)):
+        for i in range(len(chain)):                     # a point of a chain left out
+            if 0 < i < len(chain) - 1 or chain[i][0] != chain[i - 1 if i else 1][0]:
+                cut = chain[:i] + chain[i + 1:]
+            else:
+                continue                                # a vertical end piece: the same boundary
+            with pytest.raises(CheckerBug):
+                _check_chains(pts, *((cut, other) if chain is lower else (other, cut)))
+    with pytest.raises(CheckerBug):                     # the chains exchanged
+        _check_chains(pts, upper, lower)
+
+
+@settings(max_examples=100, deadline=None)
+@given(st.lists(st.tuples(st.fractions(-3, 3, max_denominator=3), st.fractions(-3, 3, max_denominator=3)),
+                min_size=1, max_size=9))
+def test_polygon_proofs_succeed_and_count_like_the_general_engine(points):
+    # the plane's floor sums (with their checked chains) against the general engine on the same
+    # polygon lifted to z = 0 in R^3 (its own proofs)
+    lifted = [p + (0,) for p in points]
+    for t in range(3):
+        assert lattice_points(t, points) == lattice_points(t, lifted)

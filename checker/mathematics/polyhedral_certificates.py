@@ -185,6 +185,8 @@ class _Faces:
 def _incidences(pts, inequalities, equations):
     """Scaled integer points and, per inequality, the mask of points where it is tight; refuses a violation."""
     d = len(pts[0])
+    if not all(type(x) is int for r in list(inequalities) + list(equations) for x in r):
+        _refuse("the rows of a polytope reached its proof without being made integers")
     den = lcm(*[c.denominator for p in pts for c in p])
     ints = _scaled_points(pts)
     masks = []

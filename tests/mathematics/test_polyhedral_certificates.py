@@ -293,7 +293,7 @@ def point_sets(draw):
     return [tuple(Fraction(c) for c in p) for p in points]
 
 
-@settings(max_examples=50, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(point_sets())
 def test_right_lists_are_always_proved(points):
     d = len(points[0])

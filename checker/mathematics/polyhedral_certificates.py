@@ -77,24 +77,20 @@ def _rank_mod_p(vectors, enough=None) -> int:
 
 
 def _pivots_mod_p(vectors, enough=None) -> dict:
+    """Echelon rows modulo PRIME, keyed by pivot column (each row 1 there, 0 at earlier pivots)."""
     pivots: dict = {}
     for v in vectors:
         if len(pivots) == enough:
             break
         v = [x % PRIME for x in v]
-        for c, row in pivots.items():
-            if v[c]:
-                f = v[c]
+        for c, row in pivots.items():        # in the order they came: earlier pivots stay 0
+            f = v[c]
+            if f:
                 v = [(x - f * y) % PRIME for x, y in zip(v, row)]
         c = next((i for i, x in enumerate(v) if x), None)
         if c is not None:
             inv = pow(v[c], -1, PRIME)
-            row = [x * inv % PRIME for x in v]
-            for k, other in pivots.items():
-                if other[c]:
-                    f = other[c]
-                    pivots[k] = [(x - f * y) % PRIME for x, y in zip(other, row)]
-            pivots[c] = row
+            pivots[c] = [x * inv % PRIME for x in v]
     return pivots
 
 

@@ -477,3 +477,12 @@ def test_polygon_proofs_succeed_and_count_like_the_general_engine(points):
     lifted = [p + (0,) for p in points]
     for t in range(3):
         assert lattice_points(t, points) == lattice_points(t, lifted)
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.integers(1, 6).flatmap(lambda d: st.lists(st.lists(st.integers(-3, 3), min_size=d, max_size=d),
+                                                    min_size=1, max_size=7)))
+def test_rank_modulo_the_prime_is_the_exact_rank_on_small_integers(vectors):
+    # the proofs read dimensions as ranks modulo 2^61 - 1 (a lower bound); on small integers they are exact
+    from checker.mathematics.polyhedral_certificates import _rank_mod_p
+    assert _rank_mod_p(vectors) == rank(vectors, len(vectors[0]))

@@ -242,6 +242,10 @@ def test_the_proof_is_wired_into_every_computation(monkeypatch):
     monkeypatch.setattr(polyhedra, "extreme_rays", lambda c, n, spend=None: [r for r in real(c, n) if not r[-1]])
     with pytest.raises(CheckerBug):
         describe(cube(2), [])
+    # nor may it lose the direction of an unbounded set: the vertex proof then fails
+    monkeypatch.setattr(polyhedra, "extreme_rays", lambda c, n, spend=None: [r for r in real(c, n) if r[-1]])
+    with pytest.raises(CheckerBug):
+        describe([(-1, 0, 0), (1, 0, 1), (0, -1, 0)], [])
     # nor may it invent a recession direction
     monkeypatch.setattr(polyhedra, "extreme_rays", lambda c, n, spend=None: real(c, n) + [(1,) + (0,) * (n - 1)])
     with pytest.raises(CheckerBug):

@@ -490,3 +490,18 @@ def test_rank_modulo_the_prime_is_the_exact_rank_on_small_integers(vectors):
     # the proofs read dimensions as ranks modulo 2^61 - 1 (a lower bound); on small integers they are exact
     from checker.mathematics.polyhedral_certificates import _rank_mod_p
     assert _rank_mod_p(vectors) == rank(vectors, len(vectors[0]))
+
+
+def test_a_certificate_meets_a_checker_bug_not_a_count(monkeypatch):
+    # end to end: with an enumeration that loses a ray, a true polytope claim fails as a checker bug
+    # (exit code 3) instead of being verified or refuted with a wrong count
+    import checker
+    from checker.mathematics import ehrhart, polytopes
+    text = "claim lattice_points_in(30, [[-1, 0, 0, 0], [0, -1, 0, 0], [0, 0, -1, 0], [2, 1, 1, 1]]) = 2856\n"
+    assert checker.check_text(text).ok       # sum over x = 0 .. 15 of C(32 - 2x, 2) = 2856 (by hand)
+    real = polyhedra.extreme_rays
+    monkeypatch.setattr(polyhedra, "extreme_rays", lambda c, n, spend=None: real(c, n, spend)[1:])
+    for memo in (polytopes._POLYTOPES, ehrhart._QUASI, ehrhart._FRAMES):
+        memo.clear()
+    report = checker.check_text(text)
+    assert not report.ok and report.exit_code == 3

@@ -6,7 +6,7 @@ G = {x : N x = h, a . x <= b for a in L} from three facts: every point of S
 satisfies every row, N cuts out exactly the affine hull of S, and the rows
 of L that are facets of G are all the facets of G; a polytope is the
 intersection of its affine hull with its facets (Minkowski-Weyl; Ziegler,
-*Lectures on Polytopes*, 2.15).  Each face is known by the points of S on it
+*Lectures on Polytopes*, Lecture 2).  Each face is known by the points of S on it
 (a bit mask); the facets of a j-face are its proper faces cut out by rows of
 L with dimension j - 1, and that list is proved complete by one of:
 
@@ -23,10 +23,12 @@ A segment has exactly two facets, its ends.
 
 Vertices.  For P = {x : A x <= b, E x = f} and a list V, `check_vertex_list`
 proves P = conv V: each v in V lies in P with tight rows of rank d (a vertex),
-P lies in the affine hull of V (Farkas multipliers y >= 0, z with
+P lies in the affine hull of V (at once when E alone cuts out a space of
+dimension dim V; otherwise by Farkas multipliers y >= 0, z with
 y A + z E = n and y b + z f = n . v for each side of each equation n of the
-hull, found among the rows tight at a vertex), and the rows of P that are facets of
-conv V are complete for conv V (`check_hull`), so P is inside conv V.
+hull, found among the rows tight at a vertex), and the rows of P that are
+facets of conv V are all the facets of conv V (`check_hull`), so P is inside
+conv V; in particular P is bounded.
 Emptiness carries y >= 0, z with y A + z E = 0 and y b + z f < 0 (Farkas 1902);
 unboundedness a point of P and a direction r != 0 with A r <= 0, E r = 0.
 

@@ -135,8 +135,8 @@ class _Faces:
         if known is not None:
             return known
         check_time()
-        if self.spend:
-            self.spend(len(self.facets) + 1)
+        if self.spend:           # about the work below: a pass over the rows, a rank of the face's points
+            self.spend(len(self.facets) + bin(face).count("1") * j + 1)
         found = sorted({face & m for m in self.facets if face & m != face})
         found = [m for m in found if self.rank(m, j - 1) >= j - 1]
         if j == 1:

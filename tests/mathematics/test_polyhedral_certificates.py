@@ -505,3 +505,13 @@ def test_a_certificate_meets_a_checker_bug_not_a_count(monkeypatch):
         memo.clear()
     report = checker.check_text(text)
     assert not report.ok and report.exit_code == 3
+
+
+def test_the_proof_spends_the_budget():
+    # B_4's enumeration needs about 5,000 terms, its proof about 290,000: a budget between refuses
+    from checker.foundation.errors import BudgetExceeded
+    from checker.foundation.limits import Limits
+    from checker.mathematics.ehrhart import budget
+    ineqs, eqs = birkhoff(4)
+    with pytest.raises(BudgetExceeded, match="terms"):
+        describe(ineqs, eqs, budget(Limits(terms=50_000), "the proof of B_4"))

@@ -15,6 +15,7 @@ from __future__ import annotations
 from fractions import Fraction
 from math import floor as _floor
 
+from ..foundation.errors import CheckerBug
 from .floor_sums import staircase
 
 __all__ = ["polygon_count", "convex_hull"]
@@ -38,7 +39,35 @@ def convex_hull(points):
         while len(upper) >= 2 and _cross(upper[-2], upper[-1], p) <= 0:
             upper.pop()
         upper.append(p)
-    return lower[:-1] + upper[:-1]
+    hull = lower[:-1] + upper[:-1]
+    _check_polygon(pts, hull)
+    return hull
+
+
+def _check_polygon(pts, hull):
+    """Every point lies left of or on every edge of the counter-clockwise hull, whose corners are
+    distinct points: each edge line then supports the point set, and a corner left out would lie
+    strictly right of the edge that skips it."""
+    if len(set(hull)) != len(hull) or not set(hull) <= set(pts) or \
+            any(_cross(a, b, p) < 0 for a, b in zip(hull, hull[1:] + hull[:1]) for p in pts):
+        raise CheckerBug("the convex hull of a polygon was computed wrongly: this is a bug in quasicert, "
+                         "please report it")
+
+
+def _check_chains(pts, lower, upper):
+    """The chains run from the least to the greatest x through points of the set with x never
+    decreasing, and every point lies on or above each lower edge line and on or below each upper one;
+    so over [min x, max x] they are the lower and upper boundary of the hull (each piece lies inside
+    the hull, and the hull lies on its side of every piece's line)."""
+    xs = [p[0] for p in pts]
+    ok = True
+    for chain, side in ((lower, 1), (upper, -1)):
+        ok = ok and set(chain) <= set(pts) and chain[0][0] == min(xs) and chain[-1][0] == max(xs) and \
+            all(a[0] <= b[0] for a, b in zip(chain, chain[1:])) and \
+            all(side * _cross(a, b, p) >= 0 for a, b in zip(chain, chain[1:]) if a[0] != b[0] for p in pts)
+    if not ok:
+        raise CheckerBug("the boundary of a polygon was computed wrongly: this is a bug in quasicert, "
+                         "please report it")
 
 
 def _chains(points):
@@ -53,6 +82,7 @@ def _chains(points):
         while len(upper) >= 2 and _cross(upper[-2], upper[-1], p) >= 0:
             upper.pop()
         upper.append(p)
+    _check_chains(pts, lower, upper)
     return lower, upper
 
 

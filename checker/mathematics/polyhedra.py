@@ -18,7 +18,9 @@ one at a time, and two rays are combined only when they are adjacent, tested
 combinatorially (no third ray is tight wherever both are).  Everything is
 integer arithmetic.  The converse direction, from a list of points to the
 facets of their convex hull, is the same computation on the polar cone
-{(a, b) : a . p_i <= b for every point p_i}.
+{(a, b) : a . p_i <= b for every point p_i}.  Both results are proved complete
+each time they are computed (`polyhedral_certificates`): a bug in the enumeration
+is refused as a CheckerBug, never turned into a count.
 
 The unit square by inequalities, and the facets of a triangle:
 
@@ -37,6 +39,7 @@ from math import gcd, lcm
 from typing import Callable, Optional
 
 from ..foundation.errors import DomainError
+from .polyhedral_certificates import check_empty, check_hull, check_unbounded, check_vertex_list
 
 __all__ = ["Polyhedron", "describe", "hull_description", "extreme_rays", "nullspace", "rank",
            "integer_row"]
@@ -220,34 +223,35 @@ def describe(inequalities, equations, spend: Spend = None) -> Polyhedron:
     rays = extreme_rays(cone, d + 1, spend)
     vertices = sorted({tuple(Fraction(x, r[d]) for x in r[:d]) for r in rays if r[d] > 0})
     if not vertices:
+        check_empty(ineqs, eqs, d)
         return Polyhedron(d, tuple(ineqs), tuple(eqs), (), -1, 1)
     directions = [r[:d] for r in rays if r[d] == 0]
     if lineality or directions:
         v = vertices[0]
         if lineality:
+            check_unbounded(ineqs, eqs, v, lineality[0], True)
             raise DomainError(f"the polytope is unbounded: it contains the whole line through "
                               f"{_point(v)} in the direction {_point(lineality[0])}")
+        check_unbounded(ineqs, eqs, v, directions[0], False)
         raise DomainError(f"the polytope is unbounded: it contains the half-line from "
                           f"{_point(v)} in the direction {_point(directions[0])}")
-    _check_vertices(vertices, ineqs, eqs, d)
+    check_vertex_list(ineqs, eqs, vertices, _affine_hull(vertices, d), spend)
+    return _analysed(d, ineqs, eqs, vertices)
+
+
+def _affine_hull(points, d) -> list[tuple[int, ...]]:
+    """Integer equations n . x = n . p0 whose solutions are the affine hull of the points."""
+    p0 = points[0]
+    normals = nullspace([[a - b for a, b in zip(p, p0)] for p in points[1:]], d) if len(points) > 1 \
+        else nullspace([], d)
+    return [integer_row(list(nv) + [_dot(nv, p0)]) for nv in normals]
+
+
+def _analysed(d, ineqs, eqs, vertices) -> Polyhedron:
     v0 = vertices[0]
     dim = rank([[a - b for a, b in zip(v, v0)] for v in vertices[1:]], d)
     den = lcm(*[c.denominator for v in vertices for c in v])
     return Polyhedron(d, tuple(ineqs), tuple(eqs), tuple(vertices), dim, den)
-
-
-def _check_vertices(vertices, ineqs, eqs, d):
-    """Each vertex satisfies every row, and its tight rows have rank d (it is a vertex)."""
-    for v in vertices:
-        tight = [r[:d] for r in eqs]
-        for r in ineqs:
-            s = _dot(r[:d], v)
-            if s > r[d]:
-                raise AssertionError(f"a computed vertex {v} violates {r}")
-            if s == r[d]:
-                tight.append(r[:d])
-        if any(_dot(r[:d], v) != r[d] for r in eqs) or rank(tight, d) != d:
-            raise AssertionError(f"a computed vertex {v} is not a vertex")
 
 
 def _point(v) -> str:
@@ -257,34 +261,34 @@ def _point(v) -> str:
 def hull_description(points, spend: Spend = None):
     """(inequalities, equations) of the convex hull of rational points, as integer rows (a..., b).
 
-    Every point is checked to satisfy every row; `convex_hull_polyhedron`
-    checks in addition that every vertex of the result is one of the points.
+    The rows are proved to be exactly the hull (`polyhedral_certificates.check_hull`): every
+    point satisfies them, each inequality is a facet, and the facet list is complete.
     """
     pts = [tuple(Fraction(c) for c in p) for p in points]
     d = len(pts[0])
-    p0 = pts[0]
-    normals = nullspace([[a - b for a, b in zip(p, p0)] for p in pts[1:]], d) if len(pts) > 1 \
-        else nullspace([], d)
-    equations = [integer_row(list(nv) + [_dot(nv, p0)]) for nv in normals]
+    equations = _affine_hull(pts, d)
     inequalities = []
-    if len(normals) < d:
+    if len(equations) < d:
         cone = [integer_row(list(p) + [-1]) for p in pts]
-        for nv in normals:
-            cone += [tuple(nv) + (0,), tuple(-x for x in nv) + (0,)]
+        for nv in equations:
+            cone += [tuple(nv[:d]) + (0,), tuple(-x for x in nv[:d]) + (0,)]
         for r in extreme_rays(cone, d + 1, spend):
             if any(r[:d]):
                 inequalities.append(tuple(r))
-    for p in pts:
-        if any(_dot(r[:d], p) > r[d] for r in inequalities) or any(_dot(r[:d], p) != r[d] for r in equations):
-            raise AssertionError("a point lies outside the computed hull")
-    return sorted(set(inequalities)), sorted(set(equations))
+    inequalities, equations = sorted(set(inequalities)), sorted(set(equations))
+    check_hull(pts, inequalities, equations, True, spend)
+    return inequalities, equations
 
 
 def convex_hull_polyhedron(points, spend: Spend = None) -> Polyhedron:
-    """The convex hull of rational points, analysed; its vertices are checked to be among the points."""
+    """The convex hull of rational points, analysed.
+
+    Its rows are proved to cut out exactly the hull, so its vertices are the points whose
+    tight rows have rank d (a point of a polyhedron is a vertex exactly then).
+    """
     ineqs, eqs = hull_description(points, spend)
-    poly = describe(ineqs, eqs, spend)
-    given = {tuple(Fraction(c) for c in p) for p in points}
-    if poly.empty or any(v not in given for v in poly.vertices):
-        raise AssertionError("the facets computed from the points do not give back their hull")
-    return poly
+    d = len(points[0])
+    given = sorted({tuple(Fraction(c) for c in p) for p in points})
+    vertices = [p for p in given
+                if rank([r[:d] for r in eqs] + [r[:d] for r in ineqs if _dot(r[:d], p) == r[d]], d) == d]
+    return _analysed(d, ineqs, eqs, vertices)

@@ -1,6 +1,6 @@
 """Lattice points in polytopes of any dimension: times, and ratios against brute force in the same run.
 
-Run on demand:  python tests/benchmarks/bench_polytopes.py
+Run on demand:  python tests/benchmarks/bench_polytopes.py  (only the proofs' cost: ... proofs)
 
 Each case is timed cold (the memo of analysed polytopes and quasi-polynomials cleared first). The
 reference is plain enumeration of a box at a small dilate, timed here, so the ratio says how much
@@ -8,6 +8,7 @@ the full Ehrhart quasi-polynomial (every t) costs against counting one small dil
 """
 from __future__ import annotations
 
+import contextlib
 import itertools
 import os
 import sys
@@ -17,10 +18,10 @@ from fractions import Fraction
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", ".."))
 
 from checker.foundation.limits import Limits  # noqa: E402
-from checker.mathematics import ehrhart, polytopes  # noqa: E402
+from checker.mathematics import ehrhart, polyhedra, polytopes  # noqa: E402
 from checker.mathematics.ehrhart import budget, constituents, count, count_by_cones, evaluate  # noqa: E402
-from tests.benchmarks.timing import best_of  # noqa: E402
 from checker.mathematics.polytopes import polytope_of_inequalities, polytope_of_vertices  # noqa: E402
+from tests.benchmarks.timing import best_of  # noqa: E402
 
 
 def cold(fn):
@@ -188,5 +189,60 @@ def main():
            seconds, "brute force at t = 4", ref)
 
 
+@contextlib.contextmanager
+def without_proofs():
+    """The analysis with the completeness proofs (polyhedral_certificates) replaced by no-ops."""
+    names = ("check_vertex_list", "check_hull", "check_empty")
+    saved = {n: getattr(polyhedra, n) for n in names}
+    for n in names:
+        setattr(polyhedra, n, lambda *args, **kwargs: None)
+    try:
+        yield
+    finally:
+        for n, f in saved.items():
+            setattr(polyhedra, n, f)
+
+
+def proof_cost():
+    """Each case above, analysis alone and analysis with the Ehrhart quasi-polynomial, with the proofs
+    and without them, best of 3 cold runs each, in the same run."""
+    d = 6
+    cross = [[s * int(j == i) for j in range(d)] for i in range(d) for s in (1, -1)]
+    ineqs, eqs = birkhoff(4)
+    gens = [(1, 0, 0), (0, 1, 0), (0, 0, 1), (1, 1, 1), (1, -1, 0), (0, 1, -1), (2, 1, -1)]
+    zonotope = sorted({tuple(sum(c * g[k] for c, g in zip(cs, gens)) for k in range(3))
+                       for cs in itertools.product((0, 1), repeat=len(gens))})
+    tri = [(0, 0), (Fraction(3, 2), 0), (0, Fraction(4, 3))]
+    rational4 = [[0, 0, 0, 0], [Fraction(1, 2), 0, 0, 0], [0, Fraction(1, 2), 0, 0], [0, 0, 1, 0],
+                 [0, 0, 0, Fraction(3, 2)], [Fraction(1, 2), Fraction(1, 2), 1, Fraction(3, 2)]]
+    cases = [
+        ("4-cube by inequalities", lambda: polytope_of_inequalities(unit_cube(4)),
+         lambda p: count(p, 10**30)),
+        ("4-simplex by inequalities", lambda: polytope_of_inequalities(simplex(4)), lambda p: count(p, 10**30)),
+        ("6-cross-polytope by 12 vertices", lambda: polytope_of_vertices(cross), constituents),
+        ("Birkhoff B_4 by inequalities", lambda: polytope_of_inequalities(ineqs, eqs), constituents),
+        ("3-zonotope by 128 points", lambda: polytope_of_vertices(zonotope), constituents),
+        ("product of two rational triangles", lambda: polytope_of_vertices([list(a) + list(b) for a in tri
+                                                                            for b in tri]), constituents),
+        ("rational 4-polytope by vertices", lambda: polytope_of_vertices(rational4), constituents),
+        ("10-cube by inequalities", lambda: polytope_of_inequalities(unit_cube(10)), lambda p: count(p, 10**30)),
+    ]
+    print("the completeness proofs: with / without, best of 3 cold runs")
+    for name, analyse, use in cases:
+        def run(whole):
+            def go():
+                cold(lambda: use(analyse()) if whole else analyse())
+            return go
+        with_a, with_w = best_of(run(False), 3), best_of(run(True), 3)
+        with without_proofs():
+            bare_a, bare_w = best_of(run(False), 3), best_of(run(True), 3)
+        print(f"  {name}: analysis {with_a * 1e3:.1f} / {bare_a * 1e3:.1f} ms = {with_a / bare_a:.2f}x; "
+              f"with the Ehrhart function {with_w * 1e3:.1f} / {bare_w * 1e3:.1f} ms = {with_w / bare_w:.2f}x")
+
+
 if __name__ == "__main__":
-    main()
+    if sys.argv[1:] == ["proofs"]:
+        proof_cost()
+    else:
+        main()
+        proof_cost()

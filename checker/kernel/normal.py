@@ -9,8 +9,12 @@ Two expressions have the same normal form exactly when they are equal as
 polynomials in their atoms: that is what "the rule produces the next line"
 means, independently of the values of the atoms.
 
-Representation: ``dict[Monomial, Fraction]`` with ``Monomial`` a frozenset of
-``(atom, exponent)`` pairs; the empty frozenset is the constant monomial.
+Representation: ``dict[Monomial, coefficient]`` with ``Monomial`` a frozenset of
+``(atom, exponent)`` pairs; the empty frozenset is the constant monomial.  A
+coefficient is a Fraction or a ``Ratio`` (``ratios``: the numbers written in a
+line stay unreduced pairs, compared by cross-multiplication; a 2000-digit
+constant is never reduced on its way through a chain step), equal and hashed
+alike for the same number, so dicts compare by value either way.
 
 >>> from checker.language.parsing import parse_expression
 >>> from checker.kernel.evaluation import Evaluator
@@ -29,6 +33,7 @@ from ..foundation.limits import check_time
 from .functions import REGISTRY
 from ..foundation.numbers import atom_text, value_text
 from .evaluation import binding
+from .ratios import Ratio, ratio
 
 __all__ = ["Normaliser", "NF", "constant", "add", "sub", "mul", "scale", "power",
            "substitute", "atoms", "text", "atom_text", "is_zero"]
@@ -37,8 +42,8 @@ NF = dict
 ONE = frozenset()
 
 
-def constant(c: Fraction) -> NF:
-    return {ONE: Fraction(c)} if c else {}
+def constant(c) -> NF:
+    return {ONE: c if isinstance(c, (Fraction, Ratio)) else Fraction(c)} if c else {}
 
 
 def atom_nf(atom) -> NF:
@@ -208,7 +213,7 @@ class Normaliser:
             raise e.at(node)
 
     def _Num(self, node):
-        return constant(Fraction(node.value))
+        return constant(ratio(node.value))
 
     def _Name(self, node):
         return constant(self.evaluator.number(node))
@@ -278,7 +283,7 @@ class Normaliser:
             return constant(simple)
         # every call of a line must be defined, also one that the normal form drops
         # (0*x, x - x, x^0): the exact value of the line would hide an undefined call
-        value = self.evaluator.call(node.name, args, node)
+        value = self.evaluator.exact_call(node.name, args, node)
         if isinstance(value, tuple):
             raise DomainError(f"{node.name} gives a list where a number is needed").at(node)
         self.positions.setdefault(atom, node.pos)

@@ -128,6 +128,8 @@ class Ratio:
 
     # -- comparisons ----------------------------------------------------------
     def __eq__(self, other):
+        if type(other) is int:
+            return self._n == other if self._d == 1 else self._n == other * self._d
         o = _parts(other)
         if o is None:
             return NotImplemented

@@ -33,10 +33,30 @@ def int_text(n: int) -> str:
 
 def text_int(s: str) -> int:
     """The integer written by a string of decimal digits."""
+    if len(s) > _GMP_DIGITS and s.isascii() and s.isdigit():
+        mpz = _gmp_mpz()
+        if mpz is not None:      # GMP reads long decimals in subquadratic time, Python's int() does not
+            return int(mpz(s))
     if len(s) <= _DIRECT_DIGITS:
         return int(s)
     k = len(s) // 2
     return text_int(s[:-k]) * 10 ** k + text_int(s[-k:])
+
+
+_GMP_DIGITS = 400
+_NOT_LOADED = object()
+_mpz = _NOT_LOADED
+
+
+def _gmp_mpz():
+    """gmpy2's mpz, imported on first need (its import costs start-up time), or None."""
+    global _mpz
+    if _mpz is _NOT_LOADED:
+        try:
+            from gmpy2 import mpz as _mpz
+        except ImportError:            # pragma: no cover - depends on the machine
+            _mpz = None
+    return _mpz
 
 
 def value_text(v) -> str:

@@ -19,7 +19,7 @@ from ..language import expressions as ex
 from ..mathematics.dedekind import dedekind_along_euclid
 from ..foundation.errors import BudgetExceeded, CertificateError, CheckerBug, DomainError
 from .functions import REGISTRY
-from .ratios import Ratio
+from .ratios import Ratio, long_integer
 from ..foundation.limits import DEFAULT_LIMITS, Limits, check_time
 from ..foundation.numbers import atom_text, value_text
 from ..mathematics.second_opinion import second_opinion
@@ -264,7 +264,7 @@ class Evaluator:
         steps asks for s at every pair of the Euclid chain, which one pass gives
         as integers 12 k s(h, k); only the values asked for become Fractions."""
         found = self._euclid_twelve(args)
-        return None if found is None else Fraction(found[0], 12 * found[1])
+        return None if found is None else Fraction(int(found[0]), 12 * int(found[1]))
 
     def _euclid_twelve(self, args):
         """(t, k') with s(h, k) = t / (12 k') from the Euclid pass, or None (see _from_euclid_pass)."""
@@ -286,7 +286,8 @@ class Evaluator:
             if len(self._along_euclid) > _MEMO_SIZE:
                 self._along_euclid.clear()
             try:
-                self._along_euclid.update(dedekind_along_euclid(*pair))
+                # long_integer: the same integers, GMP's arithmetic when gmpy2 is there
+                self._along_euclid.update(dedekind_along_euclid(*map(long_integer, pair)))
             except ArithmeticError as e:          # an inexact division: the recurrence is wrong
                 raise CheckerBug(f"{e}: this is a bug in quasicert, please report it") from None
             t = self._along_euclid[pair]

@@ -30,7 +30,7 @@ import sys
 from fractions import Fraction
 from math import gcd as _int_gcd
 
-__all__ = ["Ratio", "ratio"]
+__all__ = ["Ratio", "ratio", "long_integer"]
 
 _P = sys.hash_info.modulus
 _GMP_BITS = 1024           # below this, Python's own ints are as fast as a call into GMP
@@ -40,8 +40,14 @@ _NOT_LOADED = object()
 _mpz = _NOT_LOADED
 
 
+def long_integer(n):
+    """n as gmpy2's mpz when gmpy2 is there (imported on first need), else n itself: the same
+    number, with faster products and quotients when long."""
+    return _long(n)
+
+
 def _long(n):
-    """n as an mpz when it is long and gmpy2 is there (imported on first need), else n."""
+    """n as an mpz when gmpy2 is there (imported on first need), else n."""
     global _mpz
     if _mpz is _NOT_LOADED:
         try:
@@ -56,6 +62,15 @@ def _gcd(a, b):
         return _int_gcd(a, b)
     from gmpy2 import gcd
     return gcd(a, b)
+
+
+def _integer(x):
+    """An int or mpz as it is; anything else is refused (a bool, a float, a Fraction)."""
+    if type(x) is int or type(x).__name__ == "mpz":
+        return x
+    if isinstance(x, int) and not isinstance(x, bool):
+        return int(x)
+    raise TypeError("a Ratio is made of two integers")
 
 
 def _bits(n, d) -> int:
@@ -91,9 +106,7 @@ class Ratio:
     __slots__ = ("_n", "_d", "_limit")
 
     def __new__(cls, numerator=0, denominator=1):
-        n, d = numerator, denominator
-        if not isinstance(n, int) or not isinstance(d, int) or isinstance(n, bool) or isinstance(d, bool):
-            raise TypeError("a Ratio is made of two integers")
+        n, d = _integer(numerator), _integer(denominator)
         if d == 0:
             raise ZeroDivisionError(f"Ratio({n}, 0)")
         if d < 0:

@@ -97,3 +97,39 @@ def test_refuses_what_is_not_two_integers():
     with pytest.raises(TypeError):
         Ratio(1.5, 2)
     assert Ratio(3, -6) == Fraction(-1, 2) and Ratio(3, -6)._d > 0
+
+
+# -- normal forms: unreduced coefficients compare as the reduced ones do ---------------------------
+
+term = st.tuples(st.integers(-10**12, 10**12), st.integers(1, 10**12), st.sampled_from([None, (1, 3), (2, 5), (5, 17)]),
+                 st.one_of(st.integers(1, 50), st.integers(1, 10**320)))
+
+
+def _line(terms, scaled: bool) -> str:
+    """sum of p/q * call, each fraction written with its common factor g when `scaled`."""
+    parts = []
+    for p, q, call, g in terms:
+        g = g if scaled else 1
+        frac = f"({p * g})/({q * g})"
+        parts.append(frac if call is None else f"{frac}*dedekind({call[0]}, {call[1]})")
+    return " + ".join(parts) or "0"
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.lists(term, max_size=5), st.lists(term, max_size=5), st.booleans())
+def test_normal_forms_compare_like_their_reduced_forms(xs, ys, same):
+    from checker.kernel.evaluation import Evaluator
+    from checker.kernel.normal import Normaliser, text
+    from checker.language.parsing import parse_expression
+    if same:
+        ys = xs[::-1]                      # the same polynomial, written with other common factors
+    n = Normaliser(Evaluator())
+    a = n.normal(parse_expression(_line(xs, True)))
+    b = n.normal(parse_expression(_line(ys, False)))
+    reduced_a = {m: Fraction(c) for m, c in a.items()}
+    reduced_b = {m: Fraction(c) for m, c in b.items()}
+    assert (a == b) == (reduced_a == reduced_b)
+    assert (frozenset(a.items()) == frozenset(b.items())) == (reduced_a == reduced_b)
+    assert text(a) == text(reduced_a) and a == reduced_a
+    if same:
+        assert a == b and hash(frozenset(a.items())) == hash(frozenset(b.items()))

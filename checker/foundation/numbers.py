@@ -33,7 +33,7 @@ def int_text(n: int) -> str:
 
 def text_int(s: str) -> int:
     """The integer written by a string of decimal digits."""
-    if len(s) > _GMP_DIGITS and s.isascii() and s.isdigit():
+    if len(s) > _GMP_DIGITS and _DIGITS.match(s):
         mpz = _gmp_mpz()
         if mpz is not None:      # GMP reads long decimals in subquadratic time, Python's int() does not
             return int(mpz(s))
@@ -44,6 +44,7 @@ def text_int(s: str) -> int:
 
 
 _GMP_DIGITS = 400
+_DIGITS = re.compile(r"[0-9]+\Z")      # what int() reads alike (it also takes signs, spaces, _)
 _NOT_LOADED = object()
 _mpz = _NOT_LOADED
 

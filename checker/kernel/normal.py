@@ -154,15 +154,14 @@ def substitute(x: NF, atom, replacement: NF, limit: int | None = None) -> NF | N
     power of a sum would be needed)."""
     out: NF = {}
     for m, c in x.items():
-        exps = dict(m)
-        e = exps.pop(atom, 0)
-        rest = {frozenset(exps.items()): c}
-        if e:
-            p = power(replacement, e, limit)
-            if p is None:
-                return None
-            rest = mul(rest, p, limit)
-        _add_into(out, rest)
+        e = next((f for a, f in m if a == atom), 0)
+        if not e:                # a monomial without the atom stays as it is (no new frozenset to hash)
+            _add_into(out, {m: c})
+            continue
+        p = power(replacement, e, limit)
+        if p is None:
+            return None
+        _add_into(out, mul({frozenset(f for f in m if f[0] != atom): c}, p, limit))
     return out
 
 

@@ -41,9 +41,9 @@ _mpz = _NOT_LOADED
 
 
 def long_integer(n):
-    """n as gmpy2's mpz when gmpy2 is there (imported on first need), else n itself: the same
-    number, with faster products and quotients when long."""
-    return _long(n)
+    """n as gmpy2's mpz when it is long and gmpy2 is there (imported on first need), else n
+    itself: the same number, with faster products and quotients."""
+    return _long(n) if n.bit_length() > _GMP_BITS else n
 
 
 def _long(n):

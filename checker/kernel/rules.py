@@ -28,7 +28,7 @@ from ..mathematics.fourier_dedekind_reciprocity import (bridge_constant, coprima
                                                         polynomial_part_cost, reciprocity_range_problem)
 from ..foundation.errors import RuleRefused
 from .normal import NF, add, atom_nf, atom_text, constant, mul, scale
-from .ratios import Ratio
+from .ratios import Ratio, long_integer
 from ..foundation.numbers import value_text
 
 __all__ = ["Rule", "RULES", "WHOLE_LINE_RULES"]
@@ -154,7 +154,8 @@ def _reciprocity(atom, target, limits):
         _require_coprime(h, k)
         # reciprocity_term(h, k) as an unreduced pair: the next line's constant is compared with
         # it by cross-multiplication, so a gcd of its long terms would be wasted
-        right = Ratio(h * h + k * k + 1 - 3 * h * k, 12 * h * k)
+        x, y = long_integer(h), long_integer(k)
+        right = Ratio(x * x + y * y + 1 - 3 * x * y, 12 * x * y)
         return [add(constant(right), scale(_call("dedekind", k, h), Fraction(-1)))]
     if name == "generalized_dedekind":
         p, h, k = _integers(atom, ("order", "h", "k"))

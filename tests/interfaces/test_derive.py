@@ -163,3 +163,17 @@ def test_reciprocity_at_a_non_coprime_pair_is_refused_for_that_reason():
     report = check_text(text)
     assert not report.ok and (report.failure.line, report.failure.column) == (2, 5)
     assert "coprime" in " ".join(report.failure.details), report.failure.details
+
+
+def test_the_pure_python_path_checks_and_rejects_alike(monkeypatch):
+    # without gmpy2 the long terms stay Python ints: the same verdicts, the same failing step
+    from checker.foundation import numbers
+    from checker.kernel import ratios
+    monkeypatch.setattr(ratios, "_mpz", None)
+    monkeypatch.setattr(numbers, "_mpz", None)
+    lines, steps = _chain_300()
+    assert check_text("\n".join(lines)).ok
+    index = steps[len(steps) // 2]
+    for what, mutated, offset in _mutants(lines[index], lines[index - 1])[:8]:
+        report = check_text("\n".join(lines[:index] + [mutated] + lines[index + 1:]))
+        assert not report.ok and report.failure.line == index + 1 + offset, what

@@ -11,8 +11,8 @@ means, independently of the values of the atoms.
 
 Representation: ``dict[Monomial, coefficient]`` with ``Monomial`` a frozenset of
 ``(atom, exponent)`` pairs; the empty frozenset is the constant monomial.  A
-coefficient is a Fraction or a ``Ratio`` (``ratios``: the numbers written in a
-line stay unreduced pairs, compared by cross-multiplication; a 2000-digit
+coefficient is a Fraction or a ``Ratio`` (``ratios``: the long numbers written
+in a line stay unreduced pairs, compared by cross-multiplication; a 2000-digit
 constant is never reduced on its way through a chain step), equal and hashed
 alike for the same number, so dicts compare by value either way.
 
@@ -40,6 +40,7 @@ __all__ = ["Normaliser", "NF", "constant", "add", "sub", "mul", "scale", "power"
 
 NF = dict
 ONE = frozenset()
+LONG_BITS = 256         # numbers past this size stay unreduced Ratios; shorter ones reduce cheaply
 
 
 def constant(c) -> NF:
@@ -212,7 +213,8 @@ class Normaliser:
             raise e.at(node)
 
     def _Num(self, node):
-        return constant(ratio(node.value))
+        v = node.value
+        return constant(ratio(v) if v.bit_length() > LONG_BITS else Fraction(v))
 
     def _Name(self, node):
         return constant(self.evaluator.number(node))

@@ -27,7 +27,7 @@ from ..mathematics.elementary import sawtooth
 from ..mathematics.fourier_dedekind_reciprocity import (bridge_constant, coprimality_problem, poly_at,
                                                         polynomial_part_cost, reciprocity_range_problem)
 from ..foundation.errors import RuleRefused
-from .normal import NF, add, atom_nf, atom_text, constant, mul, scale
+from .normal import LONG_BITS, NF, add, atom_nf, atom_text, constant, mul, scale
 from .ratios import Ratio, long_integer
 from ..foundation.numbers import value_text
 
@@ -152,10 +152,12 @@ def _reciprocity(atom, target, limits):
         if h < 1:
             _refuse(f"reciprocity needs h >= 1 and k >= 1, but h = {h} (use reduce or negate first)")
         _require_coprime(h, k)
-        # reciprocity_term(h, k) as an unreduced pair: the next line's constant is compared with
-        # it by cross-multiplication, so a gcd of its long terms would be wasted
-        x, y = long_integer(h), long_integer(k)
-        right = Ratio(x * x + y * y + 1 - 3 * x * y, 12 * x * y)
+        if max(h.bit_length(), k.bit_length()) <= LONG_BITS:
+            right = reciprocity_term(h, k)
+        else:   # an unreduced pair: the next line's constant is compared with it by
+            # cross-multiplication, so a gcd of its long terms would be wasted
+            x, y = long_integer(h), long_integer(k)
+            right = Ratio(x * x + y * y + 1 - 3 * x * y, 12 * x * y)
         return [add(constant(right), scale(_call("dedekind", k, h), Fraction(-1)))]
     if name == "generalized_dedekind":
         p, h, k = _integers(atom, ("order", "h", "k"))

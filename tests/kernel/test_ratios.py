@@ -133,3 +133,20 @@ def test_normal_forms_compare_like_their_reduced_forms(xs, ys, same):
     assert text(a) == text(reduced_a) and a == reduced_a
     if same:
         assert a == b and hash(frozenset(a.items())) == hash(frozenset(b.items()))
+
+
+def test_a_long_reciprocity_constant_meets_a_lemma_parameter():
+    # reciprocity at a long pair gives an unreduced constant; in a lemma's line it is added to
+    # coefficients that are rational functions of k (once a TypeError, not a verdict)
+    from checker import check_text
+    h, k = 10**90 + 1, 10**100 + 3                    # coprime (math.gcd)
+    right = Fraction(h * h + k * k + 1 - 3 * h * k, 12 * h * k)      # the law's constant, as Fractions compute it
+    text = (f"lemma mixed(n) for n >= 1:\n"
+            f"  n*dedekind({h}, {k}) = n*{right} - n*dedekind({k}, {h})\n"
+            f"  chain n*dedekind({h}, {k})\n"
+            f"    = n*{right} - n*dedekind({k}, {h})   by reciprocity\n"
+            f"end\n")
+    report = check_text(text, seed=1)
+    assert report.ok, report.failures
+    wrong = text.replace(f"    = n*{right}", f"    = n*{right + Fraction(1, k)}")
+    assert not check_text(wrong, seed=1).ok

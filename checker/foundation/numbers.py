@@ -34,7 +34,7 @@ def int_text(n: int) -> str:
 def text_int(s: str) -> int:
     """The integer written by a string of decimal digits."""
     if len(s) > _GMP_DIGITS and _DIGITS.match(s):
-        mpz = _gmp_mpz()
+        mpz = _mpz if _mpz is not _NOT_LOADED else _gmp_mpz()
         if mpz is not None:      # GMP reads long decimals in subquadratic time, Python's int() does not
             return int(mpz(s))
     if len(s) <= _DIRECT_DIGITS:

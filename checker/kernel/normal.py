@@ -41,6 +41,7 @@ __all__ = ["Normaliser", "NF", "constant", "add", "sub", "mul", "scale", "power"
 NF = dict
 ONE = frozenset()
 LONG_BITS = 256         # numbers past this size stay unreduced Ratios; shorter ones reduce cheaply
+_ONE_F, _MINUS_ONE_F = Fraction(1), Fraction(-1)     # immutable, so shared (each Fraction() costs)
 
 
 def constant(c) -> NF:
@@ -48,7 +49,7 @@ def constant(c) -> NF:
 
 
 def atom_nf(atom) -> NF:
-    return {frozenset({(atom, 1)}): Fraction(1)}
+    return {frozenset({(atom, 1)}): _ONE_F}
 
 
 def add(x: NF, y: NF) -> NF:
@@ -78,7 +79,7 @@ def scale(x: NF, c: Fraction) -> NF:
 
 
 def sub(x: NF, y: NF) -> NF:
-    return add(x, scale(y, Fraction(-1)))
+    return add(x, scale(y, _MINUS_ONE_F))
 
 
 def _mono_mul(m1: frozenset, m2: frozenset) -> frozenset:
@@ -220,7 +221,7 @@ class Normaliser:
         return constant(self.evaluator.number(node))
 
     def _Neg(self, node):
-        return scale(self.normal(node.operand), Fraction(-1))
+        return scale(self.normal(node.operand), _MINUS_ONE_F)
 
     def _Sum(self, node):
         total: NF = {}
@@ -231,7 +232,7 @@ class Normaliser:
         return total
 
     def _Product(self, node):
-        acc = constant(Fraction(1))
+        acc = constant(_ONE_F)
         for divide, factor in node.factors:
             f = self.normal(factor)
             if divide:

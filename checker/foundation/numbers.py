@@ -14,7 +14,7 @@ from __future__ import annotations
 import re
 from fractions import Fraction  # noqa: F401  (the doctests use it)
 
-__all__ = ["abbreviate_numbers", "atom_text", "int_text", "text_int", "value_text"]
+__all__ = ["abbreviate_numbers", "atom_text", "gmp_mpz", "int_text", "text_int", "value_text"]
 
 _DIRECT_BITS = 12_000     # about 3600 digits: below Python's 4300-digit guard
 _DIRECT_DIGITS = 4_000
@@ -34,7 +34,7 @@ def int_text(n: int) -> str:
 def text_int(s: str) -> int:
     """The integer written by a string of decimal digits."""
     if len(s) > _GMP_DIGITS and _DIGITS.match(s):
-        mpz = _mpz if _mpz is not _NOT_LOADED else _gmp_mpz()
+        mpz = _mpz if _mpz is not _NOT_LOADED else gmp_mpz()
         if mpz is not None:      # GMP reads long decimals in subquadratic time, Python's int() does not
             return int(mpz(s))
     if len(s) <= _DIRECT_DIGITS:
@@ -49,8 +49,9 @@ _NOT_LOADED = object()
 _mpz = _NOT_LOADED
 
 
-def _gmp_mpz():
-    """gmpy2's mpz, imported on first need (its import costs start-up time), or None."""
+def gmp_mpz():
+    """gmpy2's mpz, imported on first need (its import costs start-up time), or None without
+    gmpy2; the one switch for long integers in GMP (tests turn it off to run on Python's ints)."""
     global _mpz
     if _mpz is _NOT_LOADED:
         try:

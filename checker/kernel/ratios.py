@@ -30,15 +30,13 @@ import sys
 from fractions import Fraction
 from math import gcd as _int_gcd
 
+from ..foundation.numbers import gmp_mpz, value_text
+
 __all__ = ["Ratio", "ratio", "long_integer"]
 
 _P = sys.hash_info.modulus
 _GMP_BITS = 1024           # below this, Python's own ints are as fast as a call into GMP
 _SLACK_BITS = 256          # a Ratio of a few words is never reduced for its size alone
-
-_NOT_LOADED = object()
-_mpz = _NOT_LOADED
-
 
 def long_integer(n):
     """n as gmpy2's mpz when it is long and gmpy2 is there (imported on first need), else n
@@ -48,13 +46,8 @@ def long_integer(n):
 
 def _long(n):
     """n as an mpz when gmpy2 is there (imported on first need), else n."""
-    global _mpz
-    if _mpz is _NOT_LOADED:
-        try:
-            from gmpy2 import mpz as _mpz
-        except ImportError:            # pragma: no cover - depends on the machine
-            _mpz = None
-    return _mpz(n) if _mpz is not None else n
+    mpz = gmp_mpz()
+    return mpz(n) if mpz is not None else n
 
 
 def _gcd(a, b):
@@ -206,12 +199,7 @@ class Ratio:
 
     def __sub__(self, other):
         o = _parts(other)
-        if o is None:
-            return NotImplemented
-        n, d, limit = o
-        if d == self._d:
-            return _make(self._n - n, d, max(self._limit, limit))
-        return _make(self._n * d - n * self._d, self._d * d, max(self._limit, limit))
+        return NotImplemented if o is None else self.__add__(_make(-o[0], o[1], o[2]))
 
     def __rsub__(self, other):
         return (-self).__add__(other)
@@ -266,7 +254,6 @@ class Ratio:
 
     # -- showing (in lowest terms) ------------------------------------------------
     def __str__(self):
-        from ..foundation.numbers import value_text
         return value_text(self)
 
     def __repr__(self):

@@ -168,8 +168,6 @@ def test_reciprocity_at_a_non_coprime_pair_is_refused_for_that_reason():
 def test_the_pure_python_path_checks_and_rejects_alike(monkeypatch):
     # without gmpy2 the long terms stay Python ints: the same verdicts, the same failing step
     from checker.foundation import numbers
-    from checker.kernel import ratios
-    monkeypatch.setattr(ratios, "_mpz", None)
     monkeypatch.setattr(numbers, "_mpz", None)
     lines, steps = _chain_300()
     assert check_text("\n".join(lines)).ok

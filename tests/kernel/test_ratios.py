@@ -9,7 +9,7 @@ import pytest
 from hypothesis import given, settings, strategies as st
 
 from checker.foundation.numbers import value_text
-from checker.kernel import ratios
+from checker.foundation import numbers
 from checker.kernel.ratios import Ratio, ratio
 
 small = st.integers(-10**6, 10**6)
@@ -84,7 +84,7 @@ def test_the_hash_modulus_in_the_common_factor():
 
 
 def test_pure_python_integers_give_the_same_answers(monkeypatch):
-    monkeypatch.setattr(ratios, "_mpz", None)
+    monkeypatch.setattr(numbers, "_mpz", None)
     n, d = 10**800 + 7, 3 * 10**790 + 1
     a = Ratio(n * 6, d * 6)
     assert type(a._n) is int and a == Fraction(n, d) and hash(a) == hash(Fraction(n, d))

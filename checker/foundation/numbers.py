@@ -14,7 +14,7 @@ from __future__ import annotations
 import re
 from fractions import Fraction  # noqa: F401  (the doctests use it)
 
-__all__ = ["abbreviate_numbers", "atom_text", "int_text", "text_int", "value_text"]
+__all__ = ["abbreviate_numbers", "atom_text", "gmp_mpz", "int_text", "text_int", "value_text"]
 
 _DIRECT_BITS = 12_000     # about 3600 digits: below Python's 4300-digit guard
 _DIRECT_DIGITS = 4_000
@@ -33,10 +33,32 @@ def int_text(n: int) -> str:
 
 def text_int(s: str) -> int:
     """The integer written by a string of decimal digits."""
+    if len(s) > _GMP_DIGITS and _DIGITS.match(s):
+        mpz = _mpz if _mpz is not _NOT_LOADED else gmp_mpz()
+        if mpz is not None:      # GMP reads long decimals in subquadratic time, Python's int() does not
+            return int(mpz(s))
     if len(s) <= _DIRECT_DIGITS:
         return int(s)
     k = len(s) // 2
     return text_int(s[:-k]) * 10 ** k + text_int(s[-k:])
+
+
+_GMP_DIGITS = 400
+_DIGITS = re.compile(r"[0-9]+\Z")      # what int() reads alike (it also takes signs, spaces, _)
+_NOT_LOADED = object()
+_mpz = _NOT_LOADED
+
+
+def gmp_mpz():
+    """gmpy2's mpz, imported on first need (its import costs start-up time), or None without
+    gmpy2; the one switch for long integers in GMP (tests turn it off to run on Python's ints)."""
+    global _mpz
+    if _mpz is _NOT_LOADED:
+        try:
+            from gmpy2 import mpz as _mpz
+        except ImportError:            # pragma: no cover - depends on the machine
+            _mpz = None
+    return _mpz
 
 
 def value_text(v) -> str:

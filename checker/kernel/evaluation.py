@@ -19,6 +19,7 @@ from ..language import expressions as ex
 from ..mathematics.dedekind import dedekind_along_euclid
 from ..foundation.errors import BudgetExceeded, CertificateError, CheckerBug, DomainError
 from .functions import REGISTRY
+from .ratios import Ratio, long_integer
 from ..foundation.limits import DEFAULT_LIMITS, Limits, check_time
 from ..foundation.numbers import atom_text, value_text
 from ..mathematics.second_opinion import second_opinion
@@ -112,6 +113,17 @@ class Evaluator:
         if self.paranoid:
             self._second_opinion(name, args, result)
         return result
+
+    def exact_call(self, name: str, args: tuple, node=None):
+        """call(name, args) for comparing lines of a chain: a Dedekind value from the chain's
+        Euclid pass comes as the unreduced Ratio t/(12 k) (lines are compared by
+        cross-multiplication, so its gcd would be wasted); every other value as call gives it."""
+        if name == "dedekind" and not self.paranoid and name in REGISTRY:
+            found = self._euclid_twelve(args)
+            if found is not None:
+                t, k = found
+                return Ratio(t, 12 * k)
+        return self.call(name, args, node)
 
     def _second_opinion(self, name, args, result):
         other = second_opinion(name, args)
@@ -278,25 +290,35 @@ class Evaluator:
         One value alone is the kernel's O(log k) algorithm; a chain of reciprocity
         steps asks for s at every pair of the Euclid chain, which one pass gives
         as integers 12 k s(h, k); only the values asked for become Fractions."""
+        found = self._euclid_twelve(args)
+        return None if found is None else Fraction(int(found[0]), 12 * int(found[1]))
+
+    def _euclid_twelve(self, args):
+        """(t, k') with s(h, k) = t / (12 k') from the Euclid pass, or None (see _from_euclid_pass)."""
         if not (self.chain_wanted or self._along_euclid) or len(args) != 2 \
                 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
             return None
         h, k = args[0].numerator, args[1].numerator
         if k < 1 or k.bit_length() < _EUCLID_MEMO_BITS:
             return None
-        pair = _reduced(h, k)
+        # the pass's keys are coprime pairs (h mod k, k), so a key met as it is needs no gcd
+        pair = (h % k, k)
         t = self._along_euclid.get(pair)
+        if t is None:
+            pair = _reduced(h, k)
+            t = self._along_euclid.get(pair)
         if t is None:
             if not self.chain_wanted:
                 return None
             if len(self._along_euclid) > _MEMO_SIZE:
                 self._along_euclid.clear()
             try:
-                self._along_euclid.update(dedekind_along_euclid(*pair))
+                # long_integer: the same integers, GMP's arithmetic when gmpy2 is there
+                self._along_euclid.update(dedekind_along_euclid(*map(long_integer, pair)))
             except ArithmeticError as e:          # an inexact division: the recurrence is wrong
                 raise CheckerBug(f"{e}: this is a bug in quasicert, please report it") from None
             t = self._along_euclid[pair]
-        return Fraction(t, 12 * pair[1])
+        return t, pair[1]
 
 
 _MISSING = object()

@@ -9,8 +9,12 @@ Two expressions have the same normal form exactly when they are equal as
 polynomials in their atoms: that is what "the rule produces the next line"
 means, independently of the values of the atoms.
 
-Representation: ``dict[Monomial, Fraction]`` with ``Monomial`` a frozenset of
-``(atom, exponent)`` pairs; the empty frozenset is the constant monomial.
+Representation: ``dict[Monomial, coefficient]`` with ``Monomial`` a frozenset of
+``(atom, exponent)`` pairs; the empty frozenset is the constant monomial.  A
+coefficient is a Fraction or a ``Ratio`` (``ratios``: the long numbers written
+in a line stay unreduced pairs, compared by cross-multiplication; a 2000-digit
+constant is never reduced on its way through a chain step), equal and hashed
+alike for the same number, so dicts compare by value either way.
 
 >>> from checker.language.parsing import parse_expression
 >>> from checker.kernel.evaluation import Evaluator
@@ -29,20 +33,23 @@ from ..foundation.limits import check_time
 from .functions import REGISTRY
 from ..foundation.numbers import atom_text, value_text
 from .evaluation import binding
+from .ratios import Ratio, ratio
 
 __all__ = ["Normaliser", "NF", "constant", "add", "sub", "mul", "scale", "power",
            "substitute", "atoms", "text", "atom_text", "is_zero"]
 
 NF = dict
 ONE = frozenset()
+LONG_BITS = 256         # numbers past this size stay unreduced Ratios; shorter ones reduce cheaply
+_ONE_F, _MINUS_ONE_F = Fraction(1), Fraction(-1)     # immutable, so shared (each Fraction() costs)
 
 
-def constant(c: Fraction) -> NF:
-    return {ONE: Fraction(c)} if c else {}
+def constant(c) -> NF:
+    return {ONE: c if isinstance(c, (Fraction, Ratio)) else Fraction(c)} if c else {}
 
 
 def atom_nf(atom) -> NF:
-    return {frozenset({(atom, 1)}): Fraction(1)}
+    return {frozenset({(atom, 1)}): _ONE_F}
 
 
 def add(x: NF, y: NF) -> NF:
@@ -72,7 +79,7 @@ def scale(x: NF, c: Fraction) -> NF:
 
 
 def sub(x: NF, y: NF) -> NF:
-    return add(x, scale(y, Fraction(-1)))
+    return add(x, scale(y, _MINUS_ONE_F))
 
 
 def _mono_mul(m1: frozenset, m2: frozenset) -> frozenset:
@@ -149,15 +156,14 @@ def substitute(x: NF, atom, replacement: NF, limit: int | None = None) -> NF | N
     power of a sum would be needed)."""
     out: NF = {}
     for m, c in x.items():
-        exps = dict(m)
-        e = exps.pop(atom, 0)
-        rest = {frozenset(exps.items()): c}
-        if e:
-            p = power(replacement, e, limit)
-            if p is None:
-                return None
-            rest = mul(rest, p, limit)
-        _add_into(out, rest)
+        e = next((f for a, f in m if a == atom), 0)
+        if not e:                # a monomial without the atom stays as it is (no new frozenset to hash)
+            _add_into(out, {m: c})
+            continue
+        p = power(replacement, e, limit)
+        if p is None:
+            return None
+        _add_into(out, mul({frozenset(f for f in m if f[0] != atom): c}, p, limit))
     return out
 
 
@@ -208,13 +214,14 @@ class Normaliser:
             raise e.at(node)
 
     def _Num(self, node):
-        return constant(Fraction(node.value))
+        v = node.value
+        return constant(ratio(v) if v.bit_length() > LONG_BITS else Fraction(v))
 
     def _Name(self, node):
         return constant(self.evaluator.number(node))
 
     def _Neg(self, node):
-        return scale(self.normal(node.operand), Fraction(-1))
+        return scale(self.normal(node.operand), _MINUS_ONE_F)
 
     def _Sum(self, node):
         total: NF = {}
@@ -225,7 +232,7 @@ class Normaliser:
         return total
 
     def _Product(self, node):
-        acc = constant(Fraction(1))
+        acc = constant(_ONE_F)
         for divide, factor in node.factors:
             f = self.normal(factor)
             if divide:
@@ -278,7 +285,7 @@ class Normaliser:
             return constant(simple)
         # every call of a line must be defined, also one that the normal form drops
         # (0*x, x - x, x^0): the exact value of the line would hide an undefined call
-        value = self.evaluator.call(node.name, args, node)
+        value = self.evaluator.exact_call(node.name, args, node)
         if isinstance(value, tuple):
             raise DomainError(f"{node.name} gives a list where a number is needed").at(node)
         self.positions.setdefault(atom, node.pos)

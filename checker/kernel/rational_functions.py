@@ -28,6 +28,7 @@ from math import gcd as _gcd
 from typing import Union
 
 from ..foundation.limits import check_time
+from .ratios import Ratio
 
 __all__ = ["RationalFunction", "Value", "poly_text", "names_of", "is_integer_polynomial",
            "poly_eval", "as_polynomial"]
@@ -386,6 +387,8 @@ Value = Union[Fraction, RationalFunction]     # what a parameter expression eval
 def _parts(x):
     if isinstance(x, RationalFunction):
         return x.num, x.den
+    if isinstance(x, Ratio):             # a chain's unreduced constant, met in a lemma's line
+        x = x.as_fraction()
     if isinstance(x, (int, Fraction)):
         x = Fraction(x)
         return ({(): x} if x else {}), {(): Fraction(1)}

@@ -27,7 +27,8 @@ from ..mathematics.elementary import sawtooth
 from ..mathematics.fourier_dedekind_reciprocity import (bridge_constant, coprimality_problem, poly_at,
                                                         polynomial_part_cost, reciprocity_range_problem)
 from ..foundation.errors import RuleRefused
-from .normal import NF, add, atom_nf, atom_text, constant, mul, scale
+from .normal import LONG_BITS, NF, add, atom_nf, atom_text, constant, mul, scale
+from .ratios import Ratio, long_integer
 from ..foundation.numbers import value_text
 
 __all__ = ["Rule", "RULES", "WHOLE_LINE_RULES"]
@@ -118,6 +119,26 @@ def _reduce(atom, target, limits):
 
 # -- reciprocity -------------------------------------------------------------
 
+_COPRIME_PAIRS: dict = {}       # pairs (a, b) with gcd(a, b) = 1, each proved by a gcd below
+_COPRIME_PAIRS_SIZE = 64
+
+
+def _require_coprime(h: int, k: int) -> None:
+    """Refuse unless gcd(h, k) = 1 (h, k >= 1).
+
+    A chain applies reciprocity to (h, k), then to (k mod h, h), ...: since
+    gcd(k mod h, h) = gcd(h, k), each gcd proved here also proves the next pair,
+    which is kept (as the exact pair of integers) so that its own gcd is not computed again."""
+    if _COPRIME_PAIRS.get((h, k)) is True:
+        return
+    g = gcd(h, k)
+    if g != 1:
+        _refuse(f"reciprocity needs coprime h and k, but gcd({h}, {k}) = {g}")
+    if len(_COPRIME_PAIRS) >= _COPRIME_PAIRS_SIZE:
+        _COPRIME_PAIRS.clear()
+    _COPRIME_PAIRS[(k % h, h)] = True
+
+
 def _apostol_right_side(p: int, h: int, k: int) -> Fraction:
     total = sum(comb(p + 1, j) * (-1) ** j * bernoulli(j) * bernoulli(p + 1 - j) * h ** j * k ** (p + 1 - j)
                 for j in range(p + 2))
@@ -130,10 +151,14 @@ def _reciprocity(atom, target, limits):
         h, k = _dedekind_args(atom)
         if h < 1:
             _refuse(f"reciprocity needs h >= 1 and k >= 1, but h = {h} (use reduce or negate first)")
-        g = gcd(h, k)
-        if g != 1:
-            _refuse(f"reciprocity needs coprime h and k, but gcd({h}, {k}) = {g}")
-        return [add(constant(reciprocity_term(h, k)), scale(_call("dedekind", k, h), Fraction(-1)))]
+        _require_coprime(h, k)
+        if max(h.bit_length(), k.bit_length()) <= LONG_BITS:
+            right = reciprocity_term(h, k)
+        else:   # an unreduced pair: the next line's constant is compared with it by
+            # cross-multiplication, so a gcd of its long terms would be wasted
+            x, y = long_integer(h), long_integer(k)
+            right = Ratio(x * x + y * y + 1 - 3 * x * y, 12 * x * y)
+        return [add(constant(right), scale(_call("dedekind", k, h), Fraction(-1)))]
     if name == "generalized_dedekind":
         p, h, k = _integers(atom, ("order", "h", "k"))
         if p < 1 or p % 2 == 0:
@@ -448,8 +473,9 @@ def _negate(atom, target, limits):
 # -- inverse -----------------------------------------------------------------
 
 def _target_dedekind(target):
-    # sorted: set order of atoms varies between runs, messages must not
-    for a in sorted(target, key=atom_text):
+    # sorted: set order of atoms varies between runs, messages must not (one call needs no
+    # sorting, nor the text of its long arguments)
+    for a in (target if len(target) < 2 else sorted(target, key=atom_text)):
         if a[0] == "dedekind" and all(isinstance(x, Fraction) and x.denominator == 1 for x in a[1]):
             yield a[1][0].numerator, a[1][1].numerator
 

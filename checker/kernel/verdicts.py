@@ -19,6 +19,7 @@ from fractions import Fraction
 
 from ..foundation.errors import CertificateError, RuleRefused
 from .normal import NF, atom_text, atoms, constant, scale, sub, substitute
+from .ratios import Ratio
 from .rules import RULES, WHOLE_LINE_RULES
 
 __all__ = ["compare", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule",
@@ -52,8 +53,9 @@ def congruent(lhs: Fraction, rhs: Fraction, modulus: Fraction) -> bool:
     return ((lhs - rhs) / modulus).denominator == 1
 
 
-def nf_value(x: NF, call, limits=None) -> Fraction:
-    """The exact value of a normal form; `call(name, args)` gives an atom's value."""
+def nf_value(x: NF, call, limits=None):
+    """The exact value of a normal form (a Fraction or an unreduced Ratio: compare it, do not
+    read its numerator); `call(name, args)` gives an atom's value."""
     total = Fraction(0)
     for m, c in x.items():
         term = c
@@ -70,7 +72,7 @@ def nf_value(x: NF, call, limits=None) -> Fraction:
             factor = v if e == 1 else v ** e
             term = factor if term == 1 else -factor if term == -1 else term * factor
         total = term if not total else total + term
-    return total if type(total) is Fraction else Fraction(total)
+    return total if isinstance(total, (Fraction, Ratio)) else Fraction(total)
 
 
 def known_rule(name: str) -> bool:
@@ -87,7 +89,7 @@ class StepVerdict:
 
 def _apply_atom_rule(rewrite, x: NF, target_atoms: set, refusals: list, limit) -> list[NF]:
     out = []
-    for atom in sorted(atoms(x), key=atom_text):
+    for atom in _in_order(atoms(x)):
         try:
             replacements = rewrite(atom, target_atoms)
         except RuleRefused as e:
@@ -100,6 +102,12 @@ def _apply_atom_rule(rewrite, x: NF, target_atoms: set, refusals: list, limit) -
     return out
 
 
+def _in_order(calls: set) -> list:
+    """The calls in the order of their text (one call needs no text: a 1000-digit argument
+    costs a quadratic conversion to decimal)."""
+    return list(calls) if len(calls) < 2 else sorted(calls, key=atom_text)
+
+
 def _apply_value(x: NF, target: NF, call, refusals: list) -> list[NF]:
     gone = atoms(x) - atoms(target)
     if not gone:
@@ -107,7 +115,7 @@ def _apply_value(x: NF, target: NF, call, refusals: list) -> list[NF]:
                                "the previous line is still in the next"))
         return []
     y = x
-    for atom in sorted(gone, key=atom_text):
+    for atom in _in_order(gone):
         try:
             v = call(*atom)
         except RuleRefused as e:
@@ -194,6 +202,8 @@ def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits,
 
 
 def _unique(xs: list) -> list:
+    if len(xs) < 2:
+        return xs
     seen, out = set(), []
     for x in xs:
         key = frozenset(x.items())

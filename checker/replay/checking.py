@@ -396,7 +396,7 @@ class _Replay:
 
     def _chain_steps(self, stmt):
         prev_nf = self.normaliser.normal(stmt.start)
-        prev_value = nf_value(prev_nf, self._call, self.limits)
+        prev_value = nf_value(prev_nf, self.evaluator.exact_call, self.limits)
         start_nf, all_ok = prev_nf, True
         for index, step in enumerate(stmt.steps, 1):
             self._on_time(step)
@@ -423,7 +423,7 @@ class _Replay:
         self.normaliser.positions = {}
         next_nf = self.normaliser.normal(step.expr)
         positions = self.normaliser.positions
-        next_value = nf_value(next_nf, self._call, self.limits)
+        next_value = nf_value(next_nf, self.evaluator.exact_call, self.limits)
         rules = [(r.name, r.label) if r.name != "lemma" else ("claim", f"lemma {r.label}")
                  for r in step.rules]
         verdict = check_step(prev_nf, next_nf, rules, self._call, facts, self.limits)
@@ -480,6 +480,7 @@ class _Replay:
 
     def _step_failure(self, where, step, rules, verdict, values_ok, prev_nf, next_nf,
                       prev_value, next_value, positions) -> Failure:
+        prev_value, next_value = Fraction(prev_value), Fraction(next_value)    # in lowest terms, to be shown
         cited = cited_rules(rules)
         pos = step.expr.pos
         line, column, end = pos.line, pos.column, pos.end_column if pos.end_line == pos.line else None

@@ -1,6 +1,6 @@
 """Certificate speed: parsing and checking large generated certificates.
 
-Run on demand:  python tests/benchmarks/bench_certificates.py
+Run on demand:  python tests/benchmarks/bench_certificates.py   (`... chain` for the chain alone)
 Ratios are against evaluating the same values directly with the kernel in
 the same run (the cost of the language and the double check on top of the
 mathematics).
@@ -18,6 +18,8 @@ from checker import check_text  # noqa: E402
 from checker.mathematics.dedekind import dedekind  # noqa: E402
 from checker.interfaces.derive import derive_dedekind  # noqa: E402
 from checker.foundation.numbers import value_text  # noqa: E402
+from checker.language.parsing import parse_certificate  # noqa: E402
+from timing import best_of  # noqa: E402
 
 
 def timed(fn):
@@ -55,7 +57,34 @@ def bench_derive(digits):
           f"one kernel evaluation {kernel * 1e3:.2f} ms; check/kernel {check / kernel:.0f}x")
 
 
+def bench_chain(digits=1000, repeat=5):
+    """Checking a derived chain (every step: the rule gives the next line, and the values agree)
+    against one kernel evaluation of the same s(h, k), best of `repeat` each (issue 15: <= 200x)."""
+    rng = random.Random(digits)
+    k = rng.randint(10 ** (digits - 1), 10 ** digits)
+    h = rng.randint(1, k)
+    text = derive_dedekind(h, k)
+    report = check_text(text)
+    assert report.ok, report.failures
+    def kernel_20():
+        for _ in range(20):
+            dedekind(h, k)
+
+    for clock, what in ((time.perf_counter, "wall"), (time.process_time, "CPU")):
+        check = best_of(lambda: check_text(text), repeat, clock)
+        parse = best_of(lambda: parse_certificate(text, "chain"), repeat, clock)
+        kernel = best_of(kernel_20, repeat, clock) / 20
+        print(f"check a derived {digits}-digit chain ({report.checked} steps, {len(text) / 1e6:.1f} MB), "
+              f"{what} time: {check * 1e3:.0f} ms, of which reading {parse * 1e3:.0f} ms; one kernel "
+              f"evaluation {kernel * 1e3:.3f} ms; check/kernel {check / kernel:.0f}x (goal <= 200x), "
+              f"reading alone {parse / kernel:.0f}x")
+
+
 if __name__ == "__main__":
+    if sys.argv[1:] == ["chain"]:
+        bench_chain()
+        sys.exit()
     bench_many_claims()
     for digits in (20, 200, 1000):
         bench_derive(digits)
+    bench_chain()

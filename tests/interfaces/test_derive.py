@@ -1,6 +1,7 @@
 """Round trip: derived certificates verify; a corrupted derived step is caught at that step."""
 import io
 import random
+import re
 from fractions import Fraction
 
 import flint
@@ -90,3 +91,87 @@ def test_derive_refuses_what_it_cannot_write():
                                      "fourier_dedekind(n, A, b), partitions(n, A), lattice_points(t, P), lattice_points_in(t, P) and "
                                      "frobenius(A); not for bernoulli")
     assert main(["derive", "dedekind(1, 0)"], out=io.StringIO(), err=err) == 2
+
+
+# -- mutants of a derived 300-digit chain: one changed step, rejected at that step ----------------
+
+def _chain_300():
+    rng = random.Random(300)
+    k = rng.randint(10 ** 299, 10 ** 300)
+    h = rng.randint(1, k)
+    text = derive_dedekind(h, k)
+    lines = text.split("\n")
+    return lines, [i for i, ln in enumerate(lines) if ln.startswith("  = ") and "dedekind(" in ln]
+
+
+def _pair(line):
+    m = re.search(r"dedekind\((\d+), (\d+)\)", line)
+    return m.group(0), int(m.group(1)), int(m.group(2))
+
+
+def _mutants(line, previous):
+    """(what, mutated line, index offset of the step that must fail: 0 this one, 1 the next)."""
+    call, a, b = _pair(line)
+    _, _, b_prev = _pair(previous)          # the pair above is (a', b'), this one (b' mod a', a')
+    flipped = line.replace(" - dedekind", " + dedekind") if " - dedekind" in line else \
+        line.replace(" + dedekind", " - dedekind")
+    head, _, number = line.partition(" = ")[2].partition(" ")[0].rpartition("/")
+    out = [("sign", flipped, 0),
+           ("rule: reciprocity only", line.replace("by reciprocity, reduce", "by reciprocity"), 0),
+           ("rule: reduce only", line.replace("by reciprocity, reduce", "by reduce"), 0),
+           ("rule: swapped order", line.replace("by reciprocity, reduce", "by reduce, reciprocity"), 0),
+           ("rule: value", line.replace("by reciprocity, reduce", "by value"), 0),
+           ("swapped pair", line.replace(call, f"dedekind({b}, {a})"), 0),
+           ("numerator + 1", line.replace(f"{head}/", f"{int(head) + 1}/", 1), 0),
+           ("denominator + 1", line.replace(f"/{number} ", f"/{int(number) + 1} ", 1), 0),
+           ("a + 1", line.replace(call, f"dedekind({a + 1}, {b})"), 0),
+           ("non-coprime pair (2a, 2b)", line.replace(call, f"dedekind({2 * a}, {2 * b})"), 0)]
+    # an off-by-one quotient in the reduction, h' = b' - (q -+ 1) a' = a +- a': the line is true
+    # and `reduce` allows any h' = h (mod k), so the next step, which no longer follows, must fail
+    # (with q = 1, a + a' is b' itself: reciprocity alone gives it, so this step fails)
+    out.append(("quotient - 1", line.replace(call, f"dedekind({a + b}, {b})"), 0 if a + b == b_prev else 1))
+    out.append(("quotient + 1", line.replace(call, f"dedekind({a - b}, {b})"), 1))
+    return out
+
+
+def test_every_mutant_of_a_300_digit_chain_is_rejected_at_its_step():
+    lines, steps = _chain_300()
+    assert check_text("\n".join(lines)).ok and len(steps) > 500
+    for index in (steps[1], steps[len(steps) // 2], steps[-3]):
+        for what, mutated, offset in _mutants(lines[index], lines[index - 1]):
+            assert mutated != lines[index], what
+            bad = lines[:index] + [mutated] + lines[index + 1:]
+            report = check_text("\n".join(bad))
+            expected = index + 1 + offset                  # 1-based line of the step that must fail
+            assert not report.ok, (what, index)
+            failure = report.failure
+            assert failure.line == expected, (what, index, failure.line, failure.message)
+            # the column is that of the line's expression or of the call that does not follow
+            call_column = bad[expected - 1].index("dedekind(") + 1
+            assert failure.column in (5, call_column), (what, failure.column)
+            assert f"step {steps.index(expected - 1) + 1} of the chain" in failure.message, what
+
+
+def test_reciprocity_at_a_non_coprime_pair_is_refused_for_that_reason():
+    # the constant of the law at (2a, 2b), written as if it held there; s(2a, 2b) = s(a, b)
+    lines, steps = _chain_300()
+    _, a, b = _pair(lines[steps[5]])
+    h, k = 2 * a, 2 * b
+    right = Fraction(h * h + k * k + 1 - 3 * h * k, 12 * h * k)
+    text = (f"chain c: dedekind({h}, {k})\n"
+            f"  = {right.numerator}/{right.denominator} - dedekind({k}, {h})    by reciprocity\n")
+    report = check_text(text)
+    assert not report.ok and (report.failure.line, report.failure.column) == (2, 5)
+    assert "coprime" in " ".join(report.failure.details), report.failure.details
+
+
+def test_the_pure_python_path_checks_and_rejects_alike(monkeypatch):
+    # without gmpy2 the long terms stay Python ints: the same verdicts, the same failing step
+    from checker.foundation import numbers
+    monkeypatch.setattr(numbers, "_mpz", None)
+    lines, steps = _chain_300()
+    assert check_text("\n".join(lines)).ok
+    index = steps[len(steps) // 2]
+    for what, mutated, offset in _mutants(lines[index], lines[index - 1])[:8]:
+        report = check_text("\n".join(lines[:index] + [mutated] + lines[index + 1:]))
+        assert not report.ok and report.failure.line == index + 1 + offset, what

@@ -231,8 +231,13 @@ def _recursion_plan(n, parts):
 
 def _fourier_plan(n, parts):
     m = len(parts)
-    if m <= 3 or any(gcd(parts[i], parts[j]) != 1 for i in range(m) for j in range(i)):
+    if m < 2 or any(gcd(parts[i], parts[j]) != 1 for i in range(m) for j in range(i)):
         return None
+    if m <= 3:
+        # sums of one or two terms are closed forms and floor sums: O(log), a second opinion to Popoviciu
+        return Plan("Fourier-Dedekind", n, parts, 20 * _bits(n, parts), _bits(n, parts),
+                    f"for {m} pairwise coprime parts by Fourier-Dedekind sums of at most two terms",
+                    lambda: partitions_by_fourier_dedekind(n, parts))
     entries = sum(parts) * (m - 1)
     return Plan("Fourier-Dedekind", n, parts, 4 * entries + m ** 4, entries,
                 f"for {m} pairwise coprime parts by {m} Fourier-Dedekind sums modulo parts up to {max(parts)}",

@@ -23,12 +23,22 @@ each u_i is an element of the group algebra Q[Z/b] (see fourier_dedekind),
 and the sum over primitive roots is a Ramanujan sum.  So everything is exact
 rational arithmetic.
 
+`partitions` itself takes the cheapest of five methods by their estimates (`plan`): the
+formula for at most three parts (few_parts: Popoviciu's formula and floor sums, O(log) at any
+size), the sum over the multiples of the largest parts down to three, the Fourier-Dedekind
+decomposition for pairwise coprime parts (O(m sum A)), the waves above, and the coefficient
+table (O(n d)).
+
 OEIS A001399 (partitions into parts 1, 2, 3) and Sylvester's coin problem:
 
 >>> partitions(10, [1, 2, 3])
 Fraction(14, 1)
 >>> partitions(10**40, [4, 9, 11, 13]) == partitions_by_quasipolynomial(10**40, [4, 9, 11, 13])
 True
+>>> partitions(10**30, [10**9 + 7, 10**9 + 9, 10**9 + 21]) == partitions_by_fourier_dedekind(10**30, [10**9 + 7, 10**9 + 9, 10**9 + 21])
+True
+>>> plan(10**30, (10**9 + 7, 10**9 + 9, 10**9 + 21)).method
+'few parts'
 >>> partitions_extended(-1, [1, 2])        # P(-1) = 0 below the threshold -(1+2)
 Fraction(0, 1)
 """

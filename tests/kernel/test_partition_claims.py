@@ -28,19 +28,19 @@ def test_paranoid_second_opinion_with_large_parts():
 
 
 def test_four_parts_of_a_billion_by_recursion():
-    # n = 3000 * 10^9 + 21000 with parts 10^9 + (7, 9, 21, 33): every solution has x1 + x2 + x3 + x4 = 3000
-    # (the excess 7 x1 + 9 x2 + 21 x3 + 33 x4 is at most 33 * 3000 < 10^9) and excess 21000, so the
+    # n = 3000 * 10^9 + 31000 with parts 10^9 + (7, 9, 21, 33): every solution has x1 + x2 + x3 + x4 = 3000
+    # (the excess 7 x1 + 9 x2 + 21 x3 + 33 x4 is at most 33 * 3000 < 10^9) and excess 31000, so the
     # count is a short loop over x3, x4 (from the definition)
     parts = [10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33]
-    n = 3000 * 10**9 + 21000
+    n = 3000 * 10**9 + 31000
     expected = 0
-    for x3 in range(1001):
-        for x4 in range((21000 - 21 * x3) // 33 + 1):
-            s, r = 3000 - x3 - x4, 21000 - 21 * x3 - 33 * x4
+    for x3 in range(10000 // 14 + 1):            # 2 x2 = 10000 - 14 x3 - 26 x4 >= 0 bounds x3, x4
+        for x4 in range(10000 // 26 + 1):
+            s, r = 3000 - x3 - x4, 31000 - 21 * x3 - 33 * x4
             twice_x2 = r - 7 * s                 # 7 x1 + 9 x2 = r with x1 = s - x2
             if twice_x2 >= 0 and twice_x2 % 2 == 0 and twice_x2 // 2 <= s:
                 expected += 1
-    assert expected > 0
+    assert expected > 1000
     assert check_text(f"claim partitions({n}, {parts}) = {expected}\n").ok
     report = check_text(f"claim partitions({n}, {parts}) = {expected - 1}\n")
     assert not report.ok and report.failure.exact == expected

@@ -35,7 +35,7 @@ from ..mathematics.elementary import as_integer as _as_integer
 from ..mathematics.polytopes import (interior_lattice_points, lattice_points, lattice_points_inequalities,
                                      polytope_of_inequalities, polytope_of_vertices)
 from ..mathematics.partitions import (partitions, partitions_extended, polynomial_part as _polynomial_part,
-                         quasipolynomial_cost, table_cost, check_parts)
+                                     partitions_cost, check_parts)
 
 __all__ = [
     "REGISTRY", "FunctionSpec", "FORMER_NAMES", "LITERATURE_NAMES",
@@ -243,17 +243,16 @@ def _cost_fourier(n, parts, b):
 
 def _cost_partitions(n, parts):
     try:
-        parts = check_parts(parts)
+        parts = check_parts(parts, allow_empty=True)
+        n = _as_integer(n)
     except CertificateError:
         return None
-    n = _int_or_zero(n)
-    biggest = max(parts)
-    table = table_cost(n, parts)
-    if biggest <= 10**7:
-        quasi = min(table, quasipolynomial_cost(parts) // 20)
-    else:
-        quasi = table
-    return ("terms", quasi, f"p_A(n) for n = {n} with parts up to {biggest}")
+    terms, what = partitions_cost(n, parts)
+    return ("terms", terms, f"{what} (n = {_short_int(n)}, parts up to {_short_int(max(parts, default=0))})")
+
+
+def _short_int(k: int) -> str:
+    return str(k) if abs(k) < 10**15 else f"about 10^{len(str(abs(k))) - 1}"
 
 
 def _cost_polynomial_part(n, parts):
@@ -268,11 +267,11 @@ def _cost_polynomial_part(n, parts):
 def _cost_extended(n, parts):
     try:
         parts = check_parts(parts)
+        n = _as_integer(n)
     except CertificateError:
         return None
-    if max(parts) > 10**7:
-        return ("terms", max(parts), "the quasi-polynomial of parts this large")
-    return ("terms", quasipolynomial_cost(parts) // 20, "the quasi-polynomial P_A")
+    # below -sum(A) the value is p_A at -n - sum(A), by reciprocity (partitions_extended)
+    return _cost_partitions(Fraction(-n - sum(parts) if n <= -sum(parts) else n), parts)
 
 
 def _cost_frobenius(parts):

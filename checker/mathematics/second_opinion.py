@@ -13,8 +13,7 @@ from math import gcd
 
 from .dedekind import dedekind_by_definition
 from .elementary import as_integer
-from .partitions import (PartitionQuasiPolynomial, check_parts, partitions_by_table,
-                         quasipolynomial_cost, table_cost)
+from .partitions import check_parts, plans
 
 __all__ = ["second_opinion", "fourier_dedekind_by_convolution", "frobenius_by_scan"]
 
@@ -34,15 +33,12 @@ def _dedekind(h, k):
 def _partitions(n, parts):
     if not _int(n) or not isinstance(parts, tuple):
         return None
-    parts = check_parts(parts)
-    n = n.numerator
-    if n < 0:
-        return Fraction(0)
-    # the kernel took the cheaper path; the other one is the second opinion
-    table, quasi = table_cost(n, parts), quasipolynomial_cost(parts)
-    if table <= quasi:
-        return PartitionQuasiPolynomial.of(parts).value(n) if quasi < 10**7 else None
-    return partitions_by_table(n, parts) if table <= 10**6 else None
+    parts = check_parts(parts, allow_empty=True)
+    # the kernel took the cheapest method; the next cheapest, if it is not too dear, is the second opinion
+    ranked = sorted(plans(n.numerator, parts), key=lambda p: p.steps)
+    if len(ranked) < 2 or ranked[1].steps > max(10**7, 4 * ranked[0].steps):
+        return None
+    return Fraction(ranked[1].run())
 
 
 def _fourier_dedekind(n, parts, b):
@@ -114,7 +110,7 @@ def frobenius_by_scan(parts) -> Fraction:
 
 _METHODS = {
     "dedekind": (_dedekind, "the definition, term by term"),
-    "partitions": (_partitions, "the other of table and quasi-polynomial"),
+    "partitions": (_partitions, "the next cheapest of table, waves, three-part formula, recursion and Fourier-Dedekind sums"),
     "fourier_dedekind": (_fourier_dedekind, "a direct convolution over Z/b"),
     "bernoulli": (_bernoulli, "the Akiyama-Tanigawa recurrence"),
     "frobenius": (_frobenius, "a scan of representable integers"),

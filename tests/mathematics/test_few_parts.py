@@ -1,0 +1,168 @@
+"""p_A(n) with large parts: the three-part formula, the recursion and the Fourier-Dedekind path,
+each against brute force, sympy's series, OEIS closed forms and the other methods."""
+import random
+from fractions import Fraction
+from math import gcd
+
+import pytest
+from hypothesis import given, settings, strategies as st
+
+from checker.foundation.errors import BudgetExceeded
+from checker.foundation.limits import DEFAULT_LIMITS
+from checker.kernel.functions import REGISTRY
+from checker.mathematics.few_parts import few_parts, three_parts, two_parts
+from checker.mathematics.partitions import (PartitionQuasiPolynomial, partitions, partitions_by_fourier_dedekind,
+                                            partitions_by_table, partitions_extended, plan, plans)
+from conftest import exact, sympy_series
+from reference import partitions_by_recursion
+
+
+def brute_three(n, a, b, c):
+    """#{(x, y, z) >= 0 : a x + b y + c z = n} by two loops and a divisibility test (from the definition)."""
+    if n < 0:
+        return 0
+    return sum(1 for z in range(n // c + 1) for y in range((n - c * z) // b + 1) if (n - c * z - b * y) % a == 0)
+
+
+@settings(max_examples=300)
+@given(st.lists(st.integers(1, 12), max_size=6), st.integers(-6, 90))
+def test_every_method_agrees_with_brute_force(parts, n):
+    # small A with repeats, part 1, gcd(A) > 1, n < 0, n = 0 and A = [] included
+    expected = partitions_by_recursion(n, parts)
+    exact(partitions(n, parts), expected)
+    for p in plans(n, tuple(parts)):
+        assert p.run() == expected, (p.method, parts, n)
+
+
+@settings(max_examples=100)
+@given(st.lists(st.integers(1, 6), min_size=1, max_size=4).map(lambda xs: [4 * x for x in xs]), st.integers(0, 120))
+def test_common_divisor_of_the_parts(parts, n):
+    # every part divisible by 4: p_A(n) = 0 unless 4 | n
+    exact(partitions(n, parts), partitions_by_recursion(n, parts))
+    if n % 4:
+        exact(partitions(n, parts), Fraction(0))
+
+
+@settings(max_examples=200)
+@given(st.integers(1, 10**9), st.integers(1, 10**9), st.integers(1, 10**9), st.integers(0, 40), st.data())
+def test_three_large_parts_against_loops(a, b, c, k, data):
+    # parts up to 10^9, n up to 40 times the middle part: the two loops stay short
+    scale = data.draw(st.sampled_from([1, 2, 6]))
+    a, b, c = a * scale, b * scale, c * scale
+    small, mid, large = sorted((a, b, c))
+    n = data.draw(st.integers(0, k * mid + 7))
+    assert three_parts(n, a, b, c) == brute_three(n, small, mid, large)
+    assert few_parts(n, [c, a, b]) == three_parts(n, a, b, c)
+
+
+def test_two_parts_popoviciu():
+    # Popoviciu (1953): p_{a,b}(n) = n/(ab) - {b' n/a} - {a' n/b} + 1 for coprime a, b
+    rng = random.Random(4)
+    for _ in range(300):
+        a, b = rng.randint(1, 10**12), rng.randint(1, 10**12)
+        if gcd(a, b) != 1:
+            continue
+        bi, ai = pow(b, -1, a) if a > 1 else 0, pow(a, -1, b) if b > 1 else 0
+        n = rng.randint(0, 10**40)
+        frac = lambda x: x - (x.numerator // x.denominator)
+        expected = Fraction(n, a * b) - frac(Fraction(bi * n, a)) - frac(Fraction(ai * n, b)) + 1
+        assert two_parts(n, a, b) == expected
+
+
+def test_oeis_closed_forms_at_huge_n():
+    for n in list(range(300)) + [10**40 + r for r in range(60)]:
+        # OEIS A001399 (parts 1, 2, 3): round((n + 3)^2 / 12)
+        exact(partitions(n, [1, 2, 3]), Fraction(((n + 3) ** 2 + 6) // 12))
+        # OEIS A000115 (parts 1, 2, 5): round((n + 4)^2 / 20), from memory; sympy agrees below
+        exact(partitions(n, [1, 2, 5]), Fraction(((n + 4) ** 2 + 10) // 20))
+        # OEIS A008619 (parts 1, 2): floor(n/2) + 1
+        exact(partitions(n, [2, 1]), Fraction(n // 2 + 1))
+    assert sympy_series([1, 2, 5], 80) == [((n + 4) ** 2 + 10) // 20 for n in range(80)]
+
+
+def test_oeis_first_terms():
+    # OEIS A001400 (parts 1, 2, 3, 4), first terms from memory
+    a001400 = [1, 1, 2, 3, 5, 6, 9, 11, 15, 18, 23, 27, 34, 39, 47, 54, 64, 72, 84, 94, 108]
+    # OEIS A000008 (change with coins 1, 2, 5, 10), first terms from memory
+    a000008 = [1, 1, 2, 2, 3, 4, 5, 6, 7, 8, 11, 12, 15, 16, 19, 22, 25, 28, 31, 34, 40]
+    for n in range(21):
+        exact(partitions(n, [1, 2, 3, 4]), Fraction(a001400[n]))
+        exact(partitions(n, [1, 2, 5, 10]), Fraction(a000008[n]))
+    # and the continuation from sympy's series, by the recursion over the part 4
+    series = sympy_series([1, 2, 3, 4], 200)
+    for n in range(4, 200, 7):
+        assert plan_named("recursion", n, [1, 2, 3, 4]).run() == series[n]
+
+
+def plan_named(method, n, parts):
+    found = [p for p in plans(n, tuple(parts)) if p.method == method]
+    assert found, (method, parts, n)
+    return found[0]
+
+
+@pytest.mark.parametrize("parts", [[3, 5, 7, 11], [4, 9, 11, 13, 17], [1, 6, 25, 7], [2, 3, 5, 7, 11, 13]])
+def test_fourier_dedekind_path_against_waves_and_series(parts):
+    # pairwise coprime parts: the decomposition against sympy's series and against the waves at huge n
+    series = sympy_series(parts, 120)
+    for n in range(120):
+        assert partitions_by_fourier_dedekind(n, parts) == series[n], n
+    waves = PartitionQuasiPolynomial.of(tuple(sorted(parts)))
+    for n in [10**30, 10**30 + 1, 10**40 + 12345]:
+        assert partitions_by_fourier_dedekind(n, parts) == waves.value(n)
+
+
+def test_three_parts_of_a_billion_two_ways():
+    # Popoviciu summed by floor sums against the Fourier-Dedekind decomposition (two-term sums
+    # by Dedekind-Rademacher-type floor sums): independent routes to the same p_A(n)
+    rng = random.Random(8)
+    for _ in range(30):
+        parts = [rng.randrange(10**9, 2 * 10**9) for _ in range(3)]
+        if any(gcd(parts[i], parts[j]) != 1 for i in range(3) for j in range(i)):
+            continue
+        for n in [10**30 + rng.randrange(10**9), rng.randrange(10**12), 0, sum(parts)]:
+            assert three_parts(n, *parts) == partitions_by_fourier_dedekind(n, parts)
+
+
+def test_recursion_against_fourier_dedekind_near_ten_thousand():
+    # 4 and 5 pairwise coprime parts near 10^4 at n = 400,000: the recursion over the largest
+    # parts (three-part values) against the Fourier-Dedekind decomposition (the benchmark does 10^6)
+    for parts in ([9973, 10007, 9967, 10009], [101, 9973, 10007, 9967, 10037]):
+        n = 4 * 10**5 + 12345
+        rec = plan_named("recursion", n, parts)
+        assert rec.terms < 10**5
+        assert rec.run() == partitions_by_fourier_dedekind(n, parts)
+
+
+def test_plan_takes_the_fast_paths():
+    assert plan(10**30, (10**9 + 7, 10**9 + 9, 10**9 + 21)).method == "few parts"
+    assert plan(10**12, (10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33)).method == "recursion"
+    assert plan(10**30, (3, 5, 7, 11, 13)).method in ("Fourier-Dedekind", "waves")
+    assert plan(50, (1, 2, 3, 4, 5)).method == "table"
+    # parts above n are never used, and a common divisor is divided out
+    assert plan(10, (3, 4, 10**30)).parts == (3, 4)
+    assert plan(10, (4, 6, 8, 12)).parts == (2, 3, 4)
+    assert plan(11, (4, 6)).method == "zero"
+
+
+def test_extended_below_the_threshold_by_reciprocity():
+    # P_A(n) for n <= -sum(A) from p_A at -n - sum(A) (Stanley, Adv. Math. 14 (1974)); the waves agree
+    for parts in ([3, 5, 7], [2, 2, 3], [4, 9, 11, 13], [1]):
+        waves = PartitionQuasiPolynomial.of(tuple(sorted(parts)))
+        for n in list(range(-sum(parts) - 40, 3)) + [-10**30]:
+            exact(partitions_extended(n, parts), waves.value(n))
+    big = [10**9 + 7, 10**9 + 9, 10**9 + 21]
+    n = 10**30
+    exact(partitions_extended(-n - sum(big), big), Fraction(three_parts(n, *big)))
+
+
+def test_budget_refuses_with_the_estimate():
+    spec = REGISTRY["partitions"]
+    big = tuple(Fraction(10**9 + k) for k in (0, 1, 3, 7))
+    with pytest.raises(BudgetExceeded) as info:
+        spec.call((Fraction(10**30), big), DEFAULT_LIMITS)
+    message = info.value.message
+    assert "4 pairwise coprime parts by 4 Fourier-Dedekind sums modulo parts up to 1000000007" in message
+    assert "over the limit terms = 3000000" in message and "--limit terms=N" in message
+    # three parts of any size cost nothing worth counting
+    value = spec.call((Fraction(10**30), big[:3]), DEFAULT_LIMITS)
+    assert value == three_parts(10**30, 10**9, 10**9 + 1, 10**9 + 3)

@@ -140,6 +140,7 @@ class PlainReader:
         # terminals whose lexemes are never anything else (long numbers and names, mostly)
         self.plain_roles = {k: frozenset((k,)) for k in ("NAME", "INT", "STRING") if k in self.small}
         self.multiline = frozenset(name for name, regex, _ in terminals if _may_span_lines(regex))
+        self.claim_line, self.claim_argument = _claim_line_patterns(self) if self.enabled else (None, None)
 
     # -- tokens ----------------------------------------------------------------
     def _start(self, text: str, limits):
@@ -179,6 +180,7 @@ class PlainReader:
             if kind in self.multiline and "\n" in lex:
                 raise GiveUp()                 # a token over two lines: Lark's business
             self.kind, self.lex, self.tline, self.tcol = kind, lex, self.line, pos - self.line_start + 1
+            self.tstart = pos
             roles = self.plain_roles.get(kind)
             if roles is None or lex in self.embedded:
                 roles = self._roles_of(kind, lex)
@@ -235,9 +237,15 @@ class PlainReader:
             raise GiveUp()
         self._start(text, limits)
         out = []
+        claim = self.kw["claim"] if self.claim_line is not None and limits.nesting >= 2 else None
         while self.kind != _END:
             if self.kind != "NAME" or self.lex not in self.statement:
                 raise GiveUp()
+            if self.lex == claim:
+                claims = self._claims_on_lines()
+                if claims:
+                    out += claims
+                    continue
             out.append(getattr(self, "_" + self.statement[self.lex])())
         return out
 
@@ -299,6 +307,87 @@ class PlainReader:
         self._next()
         rhs, _ = self._expr()
         return st.Claim(label, lhs, relation, rhs, _span(first, rhs.pos))
+
+    def _claims_on_lines(self) -> list:
+        """The claims `claim [LABEL:] f(n, ..., n) REL [-]p[/q]`, each on one line, from here on;
+        [] (nothing consumed) when the first has another shape.
+
+        One regular expression reads a line.  It is made of the grammar's own terminals with
+        blanks between them, and each token ends where the lexer ends it (a name or a number is
+        followed by a character that cannot continue it), so it reads the tokens the lexer
+        reads.  A line is taken only when the token after it starts a statement (the next line
+        is such a claim, or the lexer says so) or ends the text, so that nothing that follows
+        (`/ 2` on the next line, say) could belong to the claim."""
+        text, match, limit = self.text, self.claim_line.match, self.tokens
+        out = []
+        m = match(text, self.tstart)
+        while m is not None:
+            made = self._claim_from(m)
+            if made is None or self.count + made[1] > limit:
+                break
+            claim, tokens = made
+            end = m.end()
+            if text.startswith("\n", end):
+                following = match(text, end + 1)
+                if following is not None:
+                    # the next token is the keyword that starts the next line: read it
+                    out.append(claim)
+                    self.count += tokens + 2
+                    self.line += 1
+                    self.tline, self.line_start, self.tstart, self.tcol = self.line, end + 1, end + 1, 1
+                    self.pos = end + 1 + len(self.lex)
+                    m = following
+                    continue
+            saved = (self.pos, self.count, self.kind, self.lex, self.roles, self.tline, self.tcol,
+                     self.tstart, self.line, self.line_start)
+            self.pos = end
+            self.count += tokens
+            self._next()
+            if self.kind == _END or (self.kind == "NAME" and self.lex in self.statement):
+                out.append(claim)
+            else:
+                (self.pos, self.count, self.kind, self.lex, self.roles, self.tline, self.tcol,
+                 self.tstart, self.line, self.line_start) = saved
+            break
+        return out
+
+    def _claim_from(self, m):
+        """(the Claim of a line matched by `claim_line`, an upper bound of its tokens after the
+        keyword), or None when the line is for the token reader (a keyword as a name, a number
+        over the digit budget, a relation it does not know)."""
+        (_, (l0, l1), (n0, n1), (a0, a1), (_, c1), (r0, r1), (m0, _), (p0, p1), (q0, q1)) = m.regs
+        text, digits = self.text, self.limits.literal_digits
+        name = text[n0:n1]
+        label = text[l0:l1] if l0 >= 0 else None
+        relation = RELATIONS.get(text[r0:r1])
+        if relation is None or name in self.keywords or (label is not None and label in self.keywords) \
+                or p1 - p0 > digits or q1 - q0 > digits:
+            return None
+        line, start = self.tline, self.line_start - 1
+        args, tokens = [], 0
+        for a in self.claim_argument.finditer(text, a0, a1):
+            (_, (s0, _), (d0, d1)) = a.regs
+            if d1 - d0 > digits:
+                return None
+            node = _num(text_int(text[d0:d1]), line, d0 - start, d1 - start)
+            if s0 >= 0:
+                node = _neg(node, _at(line, s0 - start, d1 - start))
+                tokens += 1
+            args.append(node)
+        call = _call(name, tuple(args), _at(line, n0 - start, c1 - start))
+        rhs = _num(text_int(text[p0:p1]), line, p0 - start, p1 - start)
+        if m0 >= 0:
+            rhs = _neg(rhs, _at(line, m0 - start, p1 - start))
+            tokens += 1
+        if q0 >= 0:
+            divisor = _num(text_int(text[q0:q1]), line, q0 - start, q1 - start)
+            rhs = _product(((False, rhs), (True, divisor)), _at(line, rhs.pos.column, q1 - start))
+            tokens += 2
+        # name ( arguments and commas ) relation p [label :]; at most one run of blanks before
+        # each (more than the lexer counts only makes the reader give up sooner near the budget)
+        tokens += 2 * len(args) + 4 + (2 if label is not None else 0)
+        claim = _claim(label, call, relation, rhs, _at(line, self.tcol, rhs.pos.end_column))
+        return claim, 2 * tokens
 
     @property
     def relations(self):
@@ -454,6 +543,82 @@ class PlainReader:
             if not "COMMA" in self.roles:
                 raise GiveUp()
             self._next()
+
+
+_CLAIM_GROUPS = ["label", "name", "args", "close", "relation", "minus", "p", "q"]
+
+
+def _claim_line_patterns(reader):
+    """The patterns of `_claim_on_one_line`, made of the grammar's terminals; (None, None)
+    when the grammar's punctuation is not what they assume."""
+    small, by_literal = reader.small, reader.by_literal
+    punctuation = {"COLON": ":", "LPAR": "(", "RPAR": ")", "COMMA": ","}
+    if any(by_literal.get(lit) != name for name, lit in punctuation.items()) or \
+            any(k not in small for k in ("NAME", "INT", "MINUS", "MULOP")) or \
+            not small["MULOP"].fullmatch("/") or small["MINUS"].fullmatch("/"):
+        return None, None
+    # in the lexer's order, so that `<=` is tried before `<`
+    relations = [kind for kind in reader.kinds if kind in reader.kw["relations"]]
+    name, number, minus = small["NAME"].pattern, small["INT"].pattern, small["MINUS"].pattern
+    blank = "[ \t]*"
+    argument = f"(?:{minus}){blank}(?:{number})|(?:{number})"
+    relation = "|".join(f"(?:{small[r].pattern})" for r in relations)
+    line = re.compile(
+        f"{re.escape(reader.kw['claim'])}[ \t]+(?:(?P<label>{name}){blank}:{blank})?"
+        f"(?P<name>{name}){blank}\\({blank}(?P<args>(?:{argument})(?:{blank},{blank}(?:{argument}))*)"
+        f"{blank}(?P<close>\\)){blank}(?P<relation>{relation}){blank}(?:(?P<minus>{minus}){blank})?"
+        f"(?P<p>{number})(?:{blank}/{blank}(?P<q>{number}))?")
+    if list(line.groupindex) != _CLAIM_GROUPS or line.groups != len(_CLAIM_GROUPS):
+        return None, None            # a terminal with a group of its own: the numbers would shift
+    return line, re.compile(f"(?:({minus}){blank})?({number})")
+
+
+# The one-line claims build their nodes field by field: the same frozen dataclasses, equal to
+# what the constructors make (the differential test compares them), at a third of the cost of
+# the constructors' checked assignments.
+_new = object.__new__
+
+
+def _at(line: int, column: int, end_column: int) -> ex.Pos:
+    p = _new(ex.Pos)
+    d = p.__dict__
+    d["line"], d["column"], d["end_line"], d["end_column"] = line, column, line, end_column
+    return p
+
+
+def _num(value: int, line: int, column: int, end_column: int) -> ex.Num:
+    n = _new(ex.Num)
+    d = n.__dict__
+    d["value"], d["pos"] = value, _at(line, column, end_column)
+    return n
+
+
+def _neg(operand, pos: ex.Pos) -> ex.Neg:
+    n = _new(ex.Neg)
+    d = n.__dict__
+    d["operand"], d["pos"] = operand, pos
+    return n
+
+
+def _call(name: str, args: tuple, pos: ex.Pos) -> ex.Call:
+    c = _new(ex.Call)
+    d = c.__dict__
+    d["name"], d["args"], d["pos"] = name, args, pos
+    return c
+
+
+def _product(factors: tuple, pos: ex.Pos) -> ex.Product:
+    p = _new(ex.Product)
+    d = p.__dict__
+    d["factors"], d["pos"] = factors, pos
+    return p
+
+
+def _claim(label, lhs, relation: str, rhs, pos: ex.Pos) -> st.Claim:
+    c = _new(st.Claim)
+    d = c.__dict__
+    d["label"], d["lhs"], d["relation"], d["rhs"], d["pos"] = label, lhs, relation, rhs, pos
+    return c
 
 
 def _span(first: ex.Pos, last: ex.Pos) -> ex.Pos:

@@ -355,37 +355,35 @@ class PlainReader:
         """(the Claim of a line matched by `claim_line`, an upper bound of its tokens after the
         keyword), or None when the line is for the token reader (a keyword as a name, a number
         over the digit budget, a relation it does not know)."""
-        (_, (l0, l1), (n0, n1), (a0, a1), (_, c1), (r0, r1), (m0, _), (p0, p1), (q0, q1)) = m.regs
+        (_, (l0, l1), (n0, n1), _, (s0, _), (a0, a1), (t0, _), (b0, b1), (e0, e1), (_, c1), (r0, r1),
+         (m0, _), (p0, p1), (q0, q1)) = m.regs
         text, digits = self.text, self.limits.literal_digits
         name = text[n0:n1]
         label = text[l0:l1] if l0 >= 0 else None
         relation = RELATIONS.get(text[r0:r1])
         if relation is None or name in self.keywords or (label is not None and label in self.keywords) \
-                or p1 - p0 > digits or q1 - q0 > digits:
+                or max(p1 - p0, q1 - q0, a1 - a0, b1 - b0) > digits:
             return None
         line, start = self.tline, self.line_start - 1
-        args, tokens = [], 0
-        for a in self.claim_argument.finditer(text, a0, a1):
-            (_, (s0, _), (d0, d1)) = a.regs
-            if d1 - d0 > digits:
-                return None
-            node = _num(text_int(text[d0:d1]), line, d0 - start, d1 - start)
-            if s0 >= 0:
-                node = _neg(node, _at(line, s0 - start, d1 - start))
-                tokens += 1
-            args.append(node)
+        # the first two arguments have groups of their own; more are found in their span
+        args = [_literal(text, s0, a0, a1, line, start)]
+        if b0 >= 0:
+            args.append(_literal(text, t0, b0, b1, line, start))
+            if e1 > e0:
+                for a in self.claim_argument.finditer(text, e0, e1):
+                    (_, (s0, _), (a0, a1)) = a.regs
+                    if a1 - a0 > digits:
+                        return None
+                    args.append(_literal(text, s0, a0, a1, line, start))
         call = _call(name, tuple(args), _at(line, n0 - start, c1 - start))
-        rhs = _num(text_int(text[p0:p1]), line, p0 - start, p1 - start)
-        if m0 >= 0:
-            rhs = _neg(rhs, _at(line, m0 - start, p1 - start))
-            tokens += 1
+        rhs = _literal(text, m0, p0, p1, line, start)
         if q0 >= 0:
-            divisor = _num(text_int(text[q0:q1]), line, q0 - start, q1 - start)
+            divisor = _num(_integer(text[q0:q1]), line, q0 - start, q1 - start)
             rhs = _product(((False, rhs), (True, divisor)), _at(line, rhs.pos.column, q1 - start))
-            tokens += 2
-        # name ( arguments and commas ) relation p [label :]; at most one run of blanks before
-        # each (more than the lexer counts only makes the reader give up sooner near the budget)
-        tokens += 2 * len(args) + 4 + (2 if label is not None else 0)
+        # claim, label and colon, name ( arguments and their minus signs, commas ) relation,
+        # [-]p [/ q]; at most one run of blanks after each (counting more than the lexer
+        # does only makes the reader give up sooner near the budget)
+        tokens = (2 if l0 >= 0 else 0) + 3 * len(args) + 4 + (m0 >= 0) + 1 + (2 if q0 >= 0 else 0)
         claim = _claim(label, call, relation, rhs, _at(line, self.tcol, rhs.pos.end_column))
         return claim, 2 * tokens
 
@@ -545,11 +543,12 @@ class PlainReader:
             self._next()
 
 
-_CLAIM_GROUPS = ["label", "name", "args", "close", "relation", "minus", "p", "q"]
+_CLAIM_GROUPS = ["label", "name", "args", "minus1", "first", "minus2", "second", "more", "close", "relation",
+                 "minus", "p", "q"]
 
 
 def _claim_line_patterns(reader):
-    """The patterns of `_claim_on_one_line`, made of the grammar's terminals; (None, None)
+    """The patterns of `_claims_on_lines`, made of the grammar's terminals; (None, None)
     when the grammar's punctuation is not what they assume."""
     small, by_literal = reader.small, reader.by_literal
     punctuation = {"COLON": ":", "LPAR": "(", "RPAR": ")", "COMMA": ","}
@@ -561,11 +560,14 @@ def _claim_line_patterns(reader):
     relations = [kind for kind in reader.kinds if kind in reader.kw["relations"]]
     name, number, minus = small["NAME"].pattern, small["INT"].pattern, small["MINUS"].pattern
     blank = "[ \t]*"
-    argument = f"(?:{minus}){blank}(?:{number})|(?:{number})"
+    argument = f"(?:(?:{minus}){blank})?(?:{number})"
     relation = "|".join(f"(?:{small[r].pattern})" for r in relations)
     line = re.compile(
-        f"{re.escape(reader.kw['claim'])}[ \t]+(?:(?P<label>{name}){blank}:{blank})?"
-        f"(?P<name>{name}){blank}\\({blank}(?P<args>(?:{argument})(?:{blank},{blank}(?:{argument}))*)"
+        f"{re.escape(reader.kw['claim'])}[ \\t]+(?:(?P<label>{name}){blank}:{blank})?"
+        f"(?P<name>{name}){blank}\\({blank}"
+        f"(?P<args>(?:(?P<minus1>{minus}){blank})?(?P<first>{number})"
+        f"(?:{blank},{blank}(?:(?P<minus2>{minus}){blank})?(?P<second>{number})"
+        f"(?P<more>(?:{blank},{blank}{argument})*))?)"
         f"{blank}(?P<close>\\)){blank}(?P<relation>{relation}){blank}(?:(?P<minus>{minus}){blank})?"
         f"(?P<p>{number})(?:{blank}/{blank}(?P<q>{number}))?")
     if list(line.groupindex) != _CLAIM_GROUPS or line.groups != len(_CLAIM_GROUPS):
@@ -584,6 +586,16 @@ def _at(line: int, column: int, end_column: int) -> ex.Pos:
     d = p.__dict__
     d["line"], d["column"], d["end_line"], d["end_column"] = line, column, line, end_column
     return p
+
+
+def _integer(digits: str) -> int:
+    return int(digits) if len(digits) <= 4000 else text_int(digits)    # int() reads 4300 digits at most
+
+
+def _literal(text: str, minus: int, first: int, end: int, line: int, start: int):
+    """The literal text[first:end], under a minus sign at `minus` unless that is -1."""
+    node = _num(_integer(text[first:end]), line, first - start, end - start)
+    return node if minus < 0 else _neg(node, _at(line, minus - start, end - start))
 
 
 def _num(value: int, line: int, column: int, end_column: int) -> ex.Num:

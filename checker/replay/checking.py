@@ -237,11 +237,16 @@ class _Replay:
             self._run()
 
     def _run(self):
+        handlers = {}
         try:
             for stmt in self.cert.statements:
                 try:
                     self._on_time(stmt)
-                    getattr(self, "_" + type(stmt).__name__)(stmt)
+                    kind = type(stmt)
+                    handler = handlers.get(kind)
+                    if handler is None:
+                        handler = handlers[kind] = getattr(self, "_" + kind.__name__)
+                    handler(stmt)
                 except _Stop:
                     raise
                 except CertificateError as e:

@@ -141,6 +141,7 @@ class PlainReader:
         self.plain_roles = {k: frozenset((k,)) for k in ("NAME", "INT", "STRING") if k in self.small}
         self.multiline = frozenset(name for name, regex, _ in terminals if _may_span_lines(regex))
         self.claim_line, self.claim_argument = _claim_line_patterns(self) if self.enabled else (None, None)
+        self.sum_term = _sum_term_pattern(self) if self.enabled else None
 
     # -- tokens ----------------------------------------------------------------
     def _start(self, text: str, limits):
@@ -446,12 +447,34 @@ class PlainReader:
             return head
         terms, depth = [(1, head[0])], head[1]
         while "ADDOP" in self.roles:
+            if self.sum_term is not None:
+                self._number_terms(terms)
             sign = 1 if self.lex == "+" else -1
             self._next()
             term = self._product()
             terms.append((sign, term[0]))
             depth = max(depth, term[1])
         return self._made(ex.Sum(tuple(terms), _span(head[0].pos, terms[-1][1].pos)), depth + 1)
+
+    def _number_terms(self, terms: list):
+        """Terms `+ n` or `- n` (n a literal) followed by another `+` or `-` on the same line,
+        from the current token on, each read by one regular expression (the 1 + 1 + ... of a
+        long line); the current token is then the `+` or `-` after the last one read."""
+        text, match, digits = self.text, self.sum_term.match, self.limits.literal_digits
+        line, start, pos, count = self.tline, self.line_start - 1, self.tstart, self.count
+        m = match(text, pos)
+        if m is None:
+            return
+        while m is not None:
+            (_, (o0, o1), (n0, n1)) = m.regs
+            count += 4            # + blanks n blanks: counting more only gives up sooner
+            if n1 - n0 > digits or count > self.tokens:
+                break
+            terms.append((1 if text[o0:o1] == "+" else -1, _num(_integer(text[n0:n1]), line, n0 - start, n1 - start)))
+            pos = m.end()
+            m = match(text, pos)
+        self.pos, self.count = pos, count
+        self._next()                  # the `+` or `-` at pos
 
     def _product(self, first=None):
         head = self._unary(first)
@@ -573,6 +596,17 @@ def _claim_line_patterns(reader):
     if list(line.groupindex) != _CLAIM_GROUPS or line.groups != len(_CLAIM_GROUPS):
         return None, None            # a terminal with a group of its own: the numbers would shift
     return line, re.compile(f"(?:({minus}){blank})?({number})")
+
+
+def _sum_term_pattern(reader):
+    """`+ n` or `- n` followed, after blanks, by `+` or `-` (so n is a whole term); None when
+    the grammar's ADDOP could be something the pattern does not know."""
+    small = reader.small
+    if "ADDOP" not in small or "INT" not in small or not small["ADDOP"].fullmatch("+"):
+        return None
+    addop, number = small["ADDOP"].pattern, small["INT"].pattern
+    term = re.compile(f"(?P<op>{addop})[ \t]*(?P<n>{number})[ \t]*(?={addop})")
+    return term if term.groups == 2 else None
 
 
 # The one-line claims build their nodes field by field: the same frozen dataclasses, equal to

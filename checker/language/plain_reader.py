@@ -328,15 +328,17 @@ class PlainReader:
                 break
             claim, tokens = made
             end = m.end()
-            if text.startswith("\n", end):
-                following = match(text, end + 1)
+            newline = 1 if text.startswith("\n", end) else 2 if text.startswith("\r\n", end) else 0
+            if newline:
+                following = match(text, end + newline)
                 if following is not None:
                     # the next token is the keyword that starts the next line: read it
                     out.append(claim)
                     self.count += tokens + 2
                     self.line += 1
-                    self.tline, self.line_start, self.tstart, self.tcol = self.line, end + 1, end + 1, 1
-                    self.pos = end + 1 + len(self.lex)
+                    end += newline
+                    self.tline, self.line_start, self.tstart, self.tcol = self.line, end, end, 1
+                    self.pos = end + len(self.lex)
                     m = following
                     continue
             saved = (self.pos, self.count, self.kind, self.lex, self.roles, self.tline, self.tcol,

@@ -466,10 +466,11 @@ class PlainReader:
         from the current token on, each read by one regular expression (the 1 + 1 + ... of a
         long line); the current token is then the `+` or `-` after the last one read."""
         text, match, digits = self.text, self.sum_term.match, self.limits.literal_digits
-        line, start, pos, count = self.tline, self.line_start - 1, self.tstart, self.count
+        line, start, pos = self.tline, self.line_start - 1, self.tstart
         m = match(text, pos)
         if m is None:
             return
+        count = self.count - 1        # the current `+` or `-` is counted again with its term
         while m is not None:
             (_, (o0, o1), (n0, n1)) = m.regs
             count += 2 + (n0 > o1) + (m.end() > n1)      # + [blanks] n [blanks], as the lexer counts

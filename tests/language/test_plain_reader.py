@@ -266,6 +266,32 @@ def test_token_budget_at_claim_lines(tokens):
         assert parsing.parse_certificate(text, limits=limits).statements == tuple(lark)
 
 
+def _fewest_tokens(read, text):
+    """The smallest token budget at which `read` reads the text."""
+    low, high = 1, 10 * len(text)
+    while low < high:
+        middle = (low + high) // 2
+        low, high = (low, middle) if read(text, Limits(tokens=middle)) is not None else (middle + 1, high)
+    return low
+
+
+def test_the_line_readers_count_tokens_as_the_token_reader_does():
+    """A long sum and a run of claims need the budget the token reader needs, no more (an
+    overcount once sent the one-megabyte line 1+1+...+1 to Lark); for the sum that is the
+    budget Lark needs too, and one fewer is Lark's refusal."""
+    terms = "claim " + "+".join(["1"] * 1000) + " = 1000\n"
+    claims = "".join(f"claim c{i}: dedekind({i}, 7)\t= -{i} / 12\n" for i in range(20)) + "claim 1 + 2 - 3 = 0\n"
+
+    def plain(text, limits):
+        return read_plain(text, "certificate", limits)
+    for text in (terms, claims):
+        assert _fewest_tokens(plain, text) == _fewest_tokens(_token_by_token, text)
+    assert _fewest_tokens(plain, terms) == 2006          # claim, 1999, =, 1000 and 4 runs of blanks
+    parse_with_lark(terms, "certificate", Limits(tokens=2006))
+    with pytest.raises(CertificateError, match="more than 2005 tokens"):
+        parse_with_lark(terms, "certificate", Limits(tokens=2005))
+
+
 @pytest.mark.parametrize("limits", [Limits(nesting=1), Limits(nesting=2), Limits(literal_digits=2),
                                     Limits(literal_digits=20)], ids=["nesting1", "nesting2", "digits2", "digits20"])
 def test_claim_line_budgets_are_lark_s(limits):

@@ -16,8 +16,8 @@ from contextlib import contextmanager
 from fractions import Fraction
 from pathlib import Path
 
-from ..language import expressions as ex
 from ..language import statements as st
+from ..language.expressions import Neg, Num, Product
 from ..foundation.errors import (BudgetExceeded, CertificateError, CheckerBug, OutOfTime, SyntaxProblem,
                                  UnreadableFile)
 from ..kernel.evaluation import Evaluator
@@ -172,27 +172,25 @@ def _literal_quotient(node, integer_bits: int):
     evaluation could meet no limit (no number over integer_bits); else None, and the
     evaluator reads the node (and says what is wrong with it)."""
     kind = type(node)
-    if kind is ex.Product:
+    q = 1
+    if kind is Product:
         factors = node.factors
-        if len(factors) != 2 or not factors[1][0] or type(factors[1][1]) is not ex.Num:
+        if len(factors) != 2:
             return None
-        q = factors[1][1].value
-        p = _literal_integer(factors[0][1])
-        if p is None or q == 0 or max(p.bit_length(), q.bit_length()) > integer_bits:
+        (_, node), (divide, divisor) = factors
+        if not divide or type(divisor) is not Num:
             return None
-        return p, q
-    p = _literal_integer(node)
-    if p is None or p.bit_length() > integer_bits:
+        q = divisor.value
+        if q == 0 or q.bit_length() > integer_bits:
+            return None
+        kind = type(node)
+    if kind is Num:
+        p = node.value
+    elif kind is Neg and type(node.operand) is Num:
+        p = -node.operand.value
+    else:
         return None
-    return p, 1
-
-
-def _literal_integer(node):
-    if type(node) is ex.Num:
-        return node.value
-    if type(node) is ex.Neg and type(node.operand) is ex.Num:
-        return -node.operand.value
-    return None
+    return (p, q) if p.bit_length() <= integer_bits else None
 
 
 def _from_error(e: CertificateError, exit_code: int | None = None, source_note=None) -> Failure:

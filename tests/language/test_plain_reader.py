@@ -222,6 +222,20 @@ def test_fuzzed_expressions():
     assert plain > 200
 
 
+def _lark_s_verdict(text, limits):
+    """The readers agree under these limits, and parse_certificate gives Lark's tree or Lark's
+    refusal (message and position)."""
+    _same(text, limits=limits)
+    try:
+        lark = parse_with_lark(text, "certificate", limits)
+    except CertificateError as e:
+        with pytest.raises(CertificateError) as caught:
+            parsing.parse_certificate(text, limits=limits)
+        assert (caught.value.message, caught.value.line, caught.value.column) == (e.message, e.line, e.column)
+    else:
+        assert parsing.parse_certificate(text, limits=limits).statements == tuple(lark)
+
+
 @pytest.mark.parametrize("limits", [Limits(nesting=3), Limits(tokens=40), Limits(literal_digits=3),
                                     Limits(list_length=1)], ids=["nesting", "tokens", "digits", "list"])
 def test_budgets_are_lark_s(limits):
@@ -229,15 +243,7 @@ def test_budgets_are_lark_s(limits):
     texts = ["claim f(g(h(k(1)))) = 1\n", "claim " + " + ".join(["1"] * 30) + " = 30\n",
              "claim 12345 = 12345\n", "claim [1, 2] = [1, 2]\n"]
     for text in texts:
-        _same(text, limits=limits)
-        try:
-            lark = parse_with_lark(text, "certificate", limits)
-        except CertificateError as e:
-            with pytest.raises(CertificateError) as caught:
-                parsing.parse_certificate(text, limits=limits)
-            assert (caught.value.message, caught.value.line, caught.value.column) == (e.message, e.line, e.column)
-        else:
-            assert parsing.parse_certificate(text, limits=limits).statements == tuple(lark)
+        _lark_s_verdict(text, limits)
 
 
 @settings(max_examples=300, deadline=None)
@@ -255,15 +261,7 @@ def test_token_budget_at_claim_lines(tokens):
     text = ("claim a: dedekind(1, 5) = 0\nclaim b: f(-2, 3,4) <= -1/3\nclaim b2:dedekind( 1,7 )=1/2\n"
             "claim 1 + 2 + 3 - 4 = 2\n")
     limits = Limits(tokens=tokens)
-    _same(text, limits=limits)
-    try:
-        lark = parse_with_lark(text, "certificate", limits)
-    except CertificateError as e:
-        with pytest.raises(CertificateError) as caught:
-            parsing.parse_certificate(text, limits=limits)
-        assert (caught.value.message, caught.value.line, caught.value.column) == (e.message, e.line, e.column)
-    else:
-        assert parsing.parse_certificate(text, limits=limits).statements == tuple(lark)
+    _lark_s_verdict(text, limits)
 
 
 def _fewest_tokens(read, text):
@@ -297,15 +295,7 @@ def test_the_line_readers_count_tokens_as_the_token_reader_does():
 def test_claim_line_budgets_are_lark_s(limits):
     text = ("claim c: dedekind(-12345678901234567890, 7) = -1/12\nclaim d: f(1, 2, -3, 4) = 5/6\n"
             "claim 1 + 22 + 333 = 356\n")
-    _same(text, limits=limits)
-    try:
-        lark = parse_with_lark(text, "certificate", limits)
-    except CertificateError as e:
-        with pytest.raises(CertificateError) as caught:
-            parsing.parse_certificate(text, limits=limits)
-        assert (caught.value.message, caught.value.line, caught.value.column) == (e.message, e.line, e.column)
-    else:
-        assert parsing.parse_certificate(text, limits=limits).statements == tuple(lark)
+    _lark_s_verdict(text, limits)
 
 
 def test_long_line_and_deep_nesting():

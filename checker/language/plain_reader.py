@@ -473,9 +473,10 @@ class PlainReader:
         count = self.count - 1        # the current `+` or `-` is counted again with its term
         while m is not None:
             (_, (o0, o1), (n0, n1)) = m.regs
-            count += 2 + (n0 > o1) + (m.end() > n1)      # + [blanks] n [blanks], as the lexer counts
-            if n1 - n0 > digits or count > self.tokens:
-                break
+            tokens = 2 + (n0 > o1) + (m.end() > n1)      # + [blanks] n [blanks], as the lexer counts
+            if n1 - n0 > digits or count + tokens > self.tokens:
+                break                 # the token reader reads this term, and gives up
+            count += tokens
             terms.append((1 if text[o0:o1] == "+" else -1, _lean_num(_integer(text[n0:n1]), line, n0 - start, n1 - start)))
             pos = m.end()
             m = match(text, pos)

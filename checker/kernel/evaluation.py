@@ -74,7 +74,7 @@ class Evaluator:
             if value is not None:
                 self._remember(key, value)
                 return value
-        if name == "dedekind" and not self.paranoid:
+        if name == "dedekind" and not self.paranoid and (self.chain_wanted or self._along_euclid):
             value = self._from_euclid_pass(args)
             if value is not None:
                 self._remember(key, value)

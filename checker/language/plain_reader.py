@@ -370,14 +370,17 @@ class PlainReader:
         line, start = self.tline, self.line_start - 1
         # the first two arguments have groups of their own; more are found in their span
         args = [_literal(text, s0, a0, a1, line, start)]
+        negative = s0 >= 0
         if b0 >= 0:
             args.append(_literal(text, t0, b0, b1, line, start))
+            negative += t0 >= 0
             if e1 > e0:
                 for a in self.claim_argument.finditer(text, e0, e1):
                     (_, (s0, _), (a0, a1)) = a.regs
                     if a1 - a0 > digits:
                         return None
                     args.append(_literal(text, s0, a0, a1, line, start))
+                    negative += s0 >= 0
         call = _call(name, tuple(args), _at(line, n0 - start, c1 - start))
         rhs = _literal(text, m0, p0, p1, line, start)
         if q0 >= 0:
@@ -386,7 +389,6 @@ class PlainReader:
         # label and colon, name ( arguments, their minus signs and commas ) relation [-]p [/ q]
         # after the keyword, and the runs of blanks between all of them: at most one in each gap
         # and at most one a blank (more than the lexer counts only gives up sooner near the budget)
-        negative = sum(type(a) is ex.Neg for a in args)
         tokens = (2 if l0 >= 0 else 0) + 2 * len(args) + negative + 4 + (m0 >= 0) + (2 if q0 >= 0 else 0)
         start, end = m.start(), m.end()
         blanks = min(tokens, text.count(" ", start, end) + text.count("\t", start, end))

@@ -222,7 +222,8 @@ class Evaluator:
         return result
 
     def _Call(self, node):
-        args = tuple(self.value(a) for a in node.args)
+        # a literal argument as _Num reads it, without the dispatch (claims are mostly f(n, m))
+        args = tuple([Fraction(a.value) if type(a) is ex.Num else self.value(a) for a in node.args])
         return self.call(node.name, args, node)
 
     def _ListExpr(self, node):
@@ -361,11 +362,13 @@ def _table(parts, size):
 def _canonical(name, args):
     """Memo key: periodic functions depend on their argument modulo the period only."""
     try:
-        if name == "dedekind" and len(args) == 2 and args[1].denominator == 1 and args[1].numerator >= 1 \
-                and args[0].denominator == 1:
-            # ints: equal to and hashed like the Fractions they stand for, and cheaper
-            k = args[1].numerator
-            return (args[0].numerator % k, k)
+        if name == "dedekind" and len(args) == 2:
+            h, k = args
+            if k.denominator == 1 and h.denominator == 1 and k.numerator >= 1:
+                # ints: equal to and hashed like the Fractions they stand for, and cheaper
+                k = k.numerator
+                return (h.numerator % k, k)
+            return args
         if name == "fourier_dedekind" and len(args) == 3 and isinstance(args[1], tuple) \
                 and args[2].denominator == 1 and args[2] >= 1 and args[0].denominator == 1:
             b = args[2]

@@ -22,7 +22,7 @@ from .normal import NF, atom_text, atoms, constant, scale, sub, substitute
 from .ratios import Ratio
 from .rules import RULES, WHOLE_LINE_RULES
 
-__all__ = ["compare", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule",
+__all__ = ["compare", "compare_to_quotient", "congruent", "StepVerdict", "check_step", "nf_value", "known_rule",
            "frobenius_witness_problem", "representation_problem", "uncovered_residues",
            "conclusion_problem"]
 
@@ -44,6 +44,18 @@ def compare(lhs: Fraction, relation: str, rhs: Fraction) -> bool:
     if relation == ">=":
         return lhs >= rhs
     raise ValueError(relation)
+
+
+def compare_to_quotient(lhs: Fraction, relation: str, p: int, q: int) -> bool:
+    """The truth of `lhs relation p/q` for an exact value and integers p and q > 0, with no gcd:
+    a/b against p/q with b, q > 0 is a*q against p*b (multiplying by b*q > 0 keeps the order).
+
+    >>> compare_to_quotient(Fraction(1, 3), "=", 2, 6), compare_to_quotient(Fraction(-1, 3), "<", -1, 4)
+    (True, True)
+    """
+    if q <= 0:
+        raise ValueError("the denominator must be positive")
+    return compare(lhs.numerator * q, relation, p * lhs.denominator)     # exact on ints as on Fractions
 
 
 def congruent(lhs: Fraction, rhs: Fraction, modulus: Fraction) -> bool:

@@ -154,6 +154,8 @@ class PlainReader:
             return None
         blank = "[ \t]*"
         return re.compile(f"{blank}({self.small['NAME'].pattern}){blank}\\(([0-9 \t,]*)\\){blank}")
+        self.claim_line, self.claim_argument = _claim_line_patterns(self) if self.enabled else (None, None)
+        self.sum_term = _sum_term_pattern(self) if self.enabled else None
 
     # -- tokens ----------------------------------------------------------------
     def _start(self, text: str, limits):
@@ -193,6 +195,7 @@ class PlainReader:
             if kind in self.multiline and "\n" in lex:
                 raise GiveUp()                 # a token over two lines: Lark's business
             self.kind, self.lex, self.tline, self.tcol = kind, lex, self.line, pos - self.line_start + 1
+            self.tstart = pos
             roles = self.plain_roles.get(kind)
             if roles is None or lex in self.embedded:
                 roles = self._roles_of(kind, lex)
@@ -276,9 +279,15 @@ class PlainReader:
             raise GiveUp()
         self._start(text, limits)
         out = []
+        claim = self.kw["claim"] if self.claim_line is not None and limits.nesting >= 2 else None
         while self.kind != _END:
             if self.kind != "NAME" or self.lex not in self.statement:
                 raise GiveUp()
+            if self.lex == claim:
+                claims = self._claims_on_lines()
+                if claims:
+                    out += claims
+                    continue
             out.append(getattr(self, "_" + self.statement[self.lex])())
         return out
 
@@ -341,6 +350,92 @@ class PlainReader:
         rhs, _ = self._expr()
         return st.Claim(label, lhs, relation, rhs, _span(first, rhs.pos))
 
+    def _claims_on_lines(self) -> list:
+        """The claims `claim [LABEL:] f(n, ..., n) REL [-]p[/q]`, each on one line, from here on;
+        [] (nothing consumed) when the first has another shape.
+
+        One regular expression reads a line.  It is made of the grammar's own terminals with
+        blanks between them, and each token ends where the lexer ends it (a name or a number is
+        followed by a character that cannot continue it), so it reads the tokens the lexer
+        reads.  A line is taken only when the token after it starts a statement (the next line
+        is such a claim, or the lexer says so) or ends the text, so that nothing that follows
+        (`/ 2` on the next line, say) could belong to the claim."""
+        text, match, limit = self.text, self.claim_line.match, self.tokens
+        out = []
+        m = match(text, self.tstart)
+        while m is not None:
+            made = self._claim_from(m)
+            if made is None or self.count + made[1] > limit:
+                break
+            claim, tokens = made
+            end = m.end()
+            newline = 1 if text.startswith("\n", end) else 2 if text.startswith("\r\n", end) else 0
+            if newline:
+                following = match(text, end + newline)
+                if following is not None:
+                    # the next token is the keyword that starts the next line: read it
+                    out.append(claim)
+                    self.count += tokens + 2
+                    self.line += 1
+                    end += newline
+                    self.tline, self.line_start, self.tstart, self.tcol = self.line, end, end, 1
+                    self.pos = end + len(self.lex)
+                    m = following
+                    continue
+            saved = (self.pos, self.count, self.kind, self.lex, self.roles, self.tline, self.tcol,
+                     self.tstart, self.line, self.line_start)
+            self.pos = end
+            self.count += tokens
+            self._next()
+            if self.kind == _END or (self.kind == "NAME" and self.lex in self.statement):
+                out.append(claim)
+            else:
+                (self.pos, self.count, self.kind, self.lex, self.roles, self.tline, self.tcol,
+                 self.tstart, self.line, self.line_start) = saved
+            break
+        return out
+
+    def _claim_from(self, m):
+        """(the Claim of a line matched by `claim_line`, an upper bound of its tokens after the
+        keyword), or None when the line is for the token reader (a keyword as a name, a number
+        over the digit budget, a relation it does not know)."""
+        (_, (l0, l1), (n0, n1), _, (s0, _), (a0, a1), (t0, _), (b0, b1), (e0, e1), (_, c1), (r0, r1),
+         (m0, _), (p0, p1), (q0, q1)) = m.regs
+        text, digits = self.text, self.limits.literal_digits
+        name = text[n0:n1]
+        label = text[l0:l1] if l0 >= 0 else None
+        relation = RELATIONS.get(text[r0:r1])
+        if relation is None or name in self.keywords or (label is not None and label in self.keywords) \
+                or max(p1 - p0, q1 - q0, a1 - a0, b1 - b0) > digits:
+            return None
+        line, start = self.tline, self.line_start - 1
+        # the first two arguments have groups of their own; more are found in their span
+        args = [_literal(text, s0, a0, a1, line, start)]
+        negative = s0 >= 0
+        if b0 >= 0:
+            args.append(_literal(text, t0, b0, b1, line, start))
+            negative += t0 >= 0
+            if e1 > e0:
+                for a in self.claim_argument.finditer(text, e0, e1):
+                    (_, (s0, _), (a0, a1)) = a.regs
+                    if a1 - a0 > digits:
+                        return None
+                    args.append(_literal(text, s0, a0, a1, line, start))
+                    negative += s0 >= 0
+        call = _call(name, tuple(args), _at(line, n0 - start, c1 - start))
+        rhs = _literal(text, m0, p0, p1, line, start)
+        if q0 >= 0:
+            divisor = _num(_integer(text[q0:q1]), line, q0 - start, q1 - start)
+            rhs = _product(((False, rhs), (True, divisor)), _at(line, rhs.pos.column, q1 - start))
+        # label and colon, name ( arguments, their minus signs and commas ) relation [-]p [/ q]
+        # after the keyword, and the runs of blanks between all of them: at most one in each gap
+        # and at most one a blank (more than the lexer counts only gives up sooner near the budget)
+        tokens = (2 if l0 >= 0 else 0) + 2 * len(args) + negative + 4 + (m0 >= 0) + (2 if q0 >= 0 else 0)
+        start, end = m.start(), m.end()
+        blanks = min(tokens, text.count(" ", start, end) + text.count("\t", start, end))
+        claim = _claim(label, call, relation, rhs, _at(line, self.tcol, rhs.pos.end_column))
+        return claim, tokens + blanks
+
     @property
     def relations(self):
         return self.kw["relations"]
@@ -400,12 +495,36 @@ class PlainReader:
             return head
         terms, depth = [(1, head[0])], head[1]
         while "ADDOP" in self.roles:
+            if self.sum_term is not None:
+                self._number_terms(terms)
             sign = 1 if self.lex == "+" else -1
             self._next()
             term = self._product()
             terms.append((sign, term[0]))
             depth = max(depth, term[1])
         return self._made(ex.Sum(tuple(terms), _span(head[0].pos, terms[-1][1].pos)), depth + 1)
+
+    def _number_terms(self, terms: list):
+        """Terms `+ n` or `- n` (n a literal) followed by another `+` or `-` on the same line,
+        from the current token on, each read by one regular expression (the 1 + 1 + ... of a
+        long line); the current token is then the `+` or `-` after the last one read."""
+        text, match, digits = self.text, self.sum_term.match, self.limits.literal_digits
+        line, start, pos = self.tline, self.line_start - 1, self.tstart
+        m = match(text, pos)
+        if m is None:
+            return
+        count = self.count - 1        # the current `+` or `-` is counted again with its term
+        while m is not None:
+            (_, (o0, o1), (n0, n1)) = m.regs
+            tokens = 2 + (n0 > o1) + (m.end() > n1)      # + [blanks] n [blanks], as the lexer counts
+            if n1 - n0 > digits or count + tokens > self.tokens:
+                break                 # the token reader reads this term, and gives up
+            count += tokens
+            terms.append((1 if text[o0:o1] == "+" else -1, _lean_num(_integer(text[n0:n1]), line, n0 - start, n1 - start)))
+            pos = m.end()
+            m = match(text, pos)
+        self.pos, self.count = pos, count
+        self._next()                  # the `+` or `-` at pos
 
     def _product(self, first=None):
         head = self._unary(first)
@@ -522,6 +641,122 @@ class NumberCall(tuple):
             column = inside_at + found.start() + 1
             numbers.append(ex.Num(value, ex.Pos(1, column, 1, column + found.end() - found.start())))
         return ex.Call(name, tuple(numbers), ex.Pos(1, name_at + 1, 1, close_at + 2))
+
+
+_CLAIM_GROUPS = ["label", "name", "args", "minus1", "first", "minus2", "second", "more", "close", "relation",
+                 "minus", "p", "q"]
+
+
+def _claim_line_patterns(reader):
+    """The patterns of `_claims_on_lines`, made of the grammar's terminals; (None, None)
+    when the grammar's punctuation is not what they assume."""
+    small, by_literal = reader.small, reader.by_literal
+    punctuation = {"COLON": ":", "LPAR": "(", "RPAR": ")", "COMMA": ","}
+    if any(by_literal.get(lit) != name for name, lit in punctuation.items()) or \
+            any(k not in small for k in ("NAME", "INT", "MINUS", "MULOP")) or \
+            not small["MULOP"].fullmatch("/") or small["MINUS"].fullmatch("/"):
+        return None, None
+    # in the lexer's order, so that `<=` is tried before `<`
+    relations = [kind for kind in reader.kinds if kind in reader.kw["relations"]]
+    name, number, minus = small["NAME"].pattern, small["INT"].pattern, small["MINUS"].pattern
+    blank = "[ \t]*"
+    argument = f"(?:(?:{minus}){blank})?(?:{number})"
+    relation = "|".join(f"(?:{small[r].pattern})" for r in relations)
+    line = re.compile(
+        f"{re.escape(reader.kw['claim'])}[ \\t]+(?:(?P<label>{name}){blank}:{blank})?"
+        f"(?P<name>{name}){blank}\\({blank}"
+        f"(?P<args>(?:(?P<minus1>{minus}){blank})?(?P<first>{number})"
+        f"(?:{blank},{blank}(?:(?P<minus2>{minus}){blank})?(?P<second>{number})"
+        f"(?P<more>(?:{blank},{blank}{argument})*))?)"
+        f"{blank}(?P<close>\\)){blank}(?P<relation>{relation}){blank}(?:(?P<minus>{minus}){blank})?"
+        f"(?P<p>{number})(?:{blank}/{blank}(?P<q>{number}))?")
+    if list(line.groupindex) != _CLAIM_GROUPS or line.groups != len(_CLAIM_GROUPS):
+        return None, None            # a terminal with a group of its own: the numbers would shift
+    return line, re.compile(f"(?:({minus}){blank})?({number})")
+
+
+def _sum_term_pattern(reader):
+    """`+ n` or `- n` followed, after blanks, by `+` or `-` (so n is a whole term); None when
+    the grammar's ADDOP could be something the pattern does not know."""
+    small = reader.small
+    if "ADDOP" not in small or "INT" not in small or not small["ADDOP"].fullmatch("+"):
+        return None
+    addop, number = small["ADDOP"].pattern, small["INT"].pattern
+    term = re.compile(f"(?P<op>{addop})[ \t]*(?P<n>{number})[ \t]*(?={addop})")
+    return term if term.groups == 2 else None
+
+
+# The one-line claims build their nodes field by field: the same frozen dataclasses, equal to
+# what the constructors make (the differential test compares them), at half the cost of the
+# constructors, for a dict of fields per node (about 60 bytes more).  The terms of a long sum,
+# whose memory counts more than their speed, are made with the constructors' own assignments
+# (object.__setattr__, the node's fields kept inline) without the constructors' lookups.
+_new = object.__new__
+_set = object.__setattr__
+
+
+def _lean_num(value: int, line: int, column: int, end_column: int) -> ex.Num:
+    p = _new(ex.Pos)
+    _set(p, "line", line)
+    _set(p, "column", column)
+    _set(p, "end_line", line)
+    _set(p, "end_column", end_column)
+    n = _new(ex.Num)
+    _set(n, "value", value)
+    _set(n, "pos", p)
+    return n
+
+
+def _at(line: int, column: int, end_column: int) -> ex.Pos:
+    p = _new(ex.Pos)
+    d = p.__dict__
+    d["line"], d["column"], d["end_line"], d["end_column"] = line, column, line, end_column
+    return p
+
+
+def _integer(digits: str) -> int:
+    return int(digits) if len(digits) <= 4000 else text_int(digits)    # int() reads 4300 digits at most
+
+
+def _literal(text: str, minus: int, first: int, end: int, line: int, start: int):
+    """The literal text[first:end], under a minus sign at `minus` unless that is -1."""
+    node = _num(_integer(text[first:end]), line, first - start, end - start)
+    return node if minus < 0 else _neg(node, _at(line, minus - start, end - start))
+
+
+def _num(value: int, line: int, column: int, end_column: int) -> ex.Num:
+    n = _new(ex.Num)
+    d = n.__dict__
+    d["value"], d["pos"] = value, _at(line, column, end_column)
+    return n
+
+
+def _neg(operand, pos: ex.Pos) -> ex.Neg:
+    n = _new(ex.Neg)
+    d = n.__dict__
+    d["operand"], d["pos"] = operand, pos
+    return n
+
+
+def _call(name: str, args: tuple, pos: ex.Pos) -> ex.Call:
+    c = _new(ex.Call)
+    d = c.__dict__
+    d["name"], d["args"], d["pos"] = name, args, pos
+    return c
+
+
+def _product(factors: tuple, pos: ex.Pos) -> ex.Product:
+    p = _new(ex.Product)
+    d = p.__dict__
+    d["factors"], d["pos"] = factors, pos
+    return p
+
+
+def _claim(label, lhs, relation: str, rhs, pos: ex.Pos) -> st.Claim:
+    c = _new(st.Claim)
+    d = c.__dict__
+    d["label"], d["lhs"], d["relation"], d["rhs"], d["pos"] = label, lhs, relation, rhs, pos
+    return c
 
 
 def _span(first: ex.Pos, last: ex.Pos) -> ex.Pos:

@@ -7,6 +7,7 @@ mathematics).
 """
 from __future__ import annotations
 
+import gc
 import os
 import random
 import sys
@@ -28,7 +29,9 @@ def timed(fn):
     return time.perf_counter() - t, out
 
 
-def bench_many_claims(count=10_000):
+def bench_many_claims(count=10_000, repeat=5):
+    """check_text of `count` one-line claims against the kernel's values of the same pairs
+    (pre-parsed ints), best of `repeat` each, alternating; and the parse alone."""
     rng = random.Random(1)
     pairs = []
     for _ in range(count):
@@ -37,11 +40,19 @@ def bench_many_claims(count=10_000):
     text = "\n".join(f"claim c{i}: dedekind({h}, {k}) = {value_text(dedekind(h, k))}"
                      for i, (h, k) in enumerate(pairs)) + "\n"
     check_text("claim 1 = 1\n")                      # build the parser once
-    seconds, report = timed(lambda: check_text(text))
-    kernel, _ = timed(lambda: [dedekind(h, k) for h, k in pairs])
+    report = check_text(text)
     assert report.ok and report.checked == count
-    print(f"{count} claims of 20-digit dedekind values: {seconds:.2f} s (goal < 3 s); "
-          f"kernel alone {kernel:.3f} s; ratio {seconds / kernel:.0f}x")
+    check = kernel = parse = float("inf")
+    for _ in range(repeat):
+        check = min(check, best_of(lambda: check_text(text), 1))
+        kernel = min(kernel, best_of(lambda: [dedekind(h, k) for h, k in pairs], 1))
+        gc.disable()              # as check_text reads: the collector paused, the trees set aside
+        try:
+            parse = min(parse, best_of(lambda: parse_certificate(text), 1))
+        finally:
+            gc.enable()
+    print(f"{count} claims of 20-digit dedekind values: {check:.2f} s; kernel alone {kernel:.3f} s; "
+          f"ratio {check / kernel:.1f}x (goal <= 5x), of which parsing {parse / kernel:.1f}x")
 
 
 def bench_derive(digits):

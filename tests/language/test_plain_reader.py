@@ -19,6 +19,7 @@ from checker.foundation.resources import resource_dir
 from checker.interfaces.derive import derive_dedekind
 from checker.language import parsing
 from checker.language.parsing import parse_with_lark, read_plain
+from checker.language.plain_reader import GiveUp, PlainReader
 
 ROOT = Path(__file__).resolve().parents[2]
 BUNDLED = sorted(resource_dir("checker.certificates", "certificates").glob("*.qcert"))
@@ -37,6 +38,41 @@ CORPUS += [derive_dedekind(h, k) for h, k in ((5, 17), (12345678901, 98765432109
 CORPUS += ["", "# only a comment\n", "claim 1 = 1", "claim a: 2 <= 3\nclaim b: 3 \u2265 2\nclaim c: 1 \u2260 2",
            "let x = -(2)^-3 \u00b7 4 \u00d7 5 \u2212 +6\nclaim x == 3 mod 7\n",
            "chain c: dedekind(3, 7)\n  = dedekind(3, 7) by reduce, claim a\n  = dedekind(3, 7) by negate\n"]
+
+
+
+def _claim_lines(rng, count):
+    """Claims of the shape the plain reader reads a line at a time, and near misses: keywords as
+    names, unicode forms, blanks, other line ends, and what may follow (another statement, a
+    continuation of the right side on the next line, a comment, the end of the text)."""
+    out = []
+    for _ in range(count):
+        blank = lambda: rng.choice(["", " ", " ", "  ", "\t"])                       # noqa: E731
+        label = rng.choice([None, None, "c", "c12", "h'", "_x", "c", "c12", "claim", "total", "mod", "by"])
+        name = rng.choice(["dedekind", "dedekind", "f", "g_2", "x'", "dedekind", "f", "sum", "total", "use"])
+        args = [rng.choice(["", "", "-", "\u2212", "- "]) + rng.choice(["0", "7", "12345678901234567890", "9" * 30])
+                for _ in range(rng.choice([1, 2, 2, 2, 3, 5]))]
+        relation = rng.choice(["=", "=", "<", ">", "<=", ">=", "!=", "\u2264", "\u2265", "\u2260", "==", "\u2261"])
+        rhs = rng.choice(["", "", "-", "\u2212", "- ", "+"]) + rng.choice(["0", "5", "98765432109876543210"])
+        if rng.random() < 0.6:
+            rhs += blank() + rng.choice(["/", "/", "*", "\u00b7"]) + blank() + rng.choice(["12", "0", "-3", "7"])
+        head = "claim" + rng.choice([" ", " ", "\t", "  "]) + (f"{label}{blank()}:{blank()}" if label else "")
+        line = (head + name + blank() + "(" + blank() + (blank() + "," + blank()).join(args) + blank() + ")"
+                + blank() + relation + blank() + rhs)
+        ends = ["\n", "\r\n", " \n", " # note\n", "\n\n", "", " ", "\n# c\n"]
+        misses = ["\n  /5\n", "\n+ 1\n", "\n^2\n", "x\n", " mod 3\n", " (mod 3)\n", "'\n"]
+        out.append(line + ("\n" if rng.random() < 0.6 else rng.choice(ends if rng.random() < 0.7 else misses)))
+    return out
+
+
+def _claims_text(rng, count):
+    others = ["chain dedekind(1, 5)\n  = 0 by value\n", "let y = 1 + 2 + 3 - 4\n", 'title "t"\n', "claim y = 2\n"]
+    return "".join(line if rng.random() < 0.85 else rng.choice(others) for line in _claim_lines(rng, count))
+
+
+CORPUS += [_claims_text(random.Random(seed), 12) for seed in range(4)]
+CORPUS += ["".join(f"claim c{i}: dedekind({3 * i + 1}, {10 ** 19 + 7 * i}) = {i - 5}/{i + 12}\n" for i in range(12)),
+           "claim 1 + 2 - 3 + 40 - 5 = 35\nlet t = 2 + 3 * 4 - 1 + (5 - 6) - 7 + 8\nclaim t = 10 + 1 \u2212 2 - 3\n"]
 
 # pieces the fuzzer inserts: every kind of terminal, keywords in odd places, unicode forms
 PIECES = ["claim", "chain", "let", "title", "source", "by", "mod", "sum", "lemma", "use", "then", "end",
@@ -87,6 +123,66 @@ def test_corpus(text):
     _same(text)
 
 
+def _token_by_token(text, limits=DEFAULT_LIMITS):
+    """The plain reader without its line-at-a-time claims and literal sum terms."""
+    reader = object.__new__(PlainReader)
+    reader.__dict__.update(parsing._plain_reader().__dict__)
+    reader.claim_line = reader.sum_term = None
+    try:
+        return reader.certificate(text, limits)
+    except GiveUp:
+        return None
+
+
+@pytest.fixture
+def lines_read(monkeypatch):
+    """Counts the claims the plain reader reads a line at a time."""
+    count = [0]
+    made = PlainReader._claim_from
+
+    def counted(self, m):
+        found = made(self, m)
+        count[0] += found is not None
+        return found
+    monkeypatch.setattr(PlainReader, "_claim_from", counted)
+    return count
+
+
+def test_claim_lines_read_at_once_are_the_grammar_s(lines_read):
+    """Claims read a line at a time: the trees and positions of Lark and of the token reader."""
+    rng = random.Random(151)
+    read = 0
+    for _ in range(300):
+        text = _claims_text(rng, rng.randint(1, 4))
+        before = lines_read[0]
+        if _same(text):
+            read += 1
+            assert _token_by_token(text) == read_plain(text, "certificate"), text
+        elif lines_read[0] > before:
+            # the line reader read a claim, another statement sent the text to Lark: Lark alone decides
+            assert read_plain(text, "certificate") is None
+    assert read > 40 and lines_read[0] > 150, (read, lines_read[0])  # the shapes are reached, and read by the line reader
+
+
+def test_a_long_run_of_claims_is_read_a_line_at_a_time(lines_read):
+    text = "".join(f"claim c{i}: dedekind({7 * i + 1}, {10 ** 19 + i}) = -{i}/{i + 1}\n" for i in range(500))
+    assert _same(text)
+    assert lines_read[0] == 500
+    assert read_plain(text, "certificate") == _token_by_token(text)
+    crlf = text.replace("\n", "\r\n")
+    assert _same(crlf) and read_plain(crlf, "certificate") == _token_by_token(crlf)
+
+
+def test_literal_sum_terms_are_the_grammar_s():
+    rng = random.Random(152)
+    for _ in range(200):
+        terms = [rng.choice(["1", "23", "456", "(1)", "2*3", "-4", "x", "7^2", "8 # c\n"]) for _ in range(rng.randint(1, 8))]
+        text = "let x = 2\nclaim " + "".join(rng.choice(["+", "-", " + ", "\t- ", "\u2212", "\n+ "]) + t
+                                            for t in terms) + rng.choice([" = 1\n", "\n= 1", " * 2 = 1"])
+        if _same(text):
+            assert read_plain(text, "certificate") == _token_by_token(text)
+
+
 def test_plain_certificates_are_read_without_lark():
     read = [p.name for p in BUNDLED if _same(p.read_text(encoding="utf-8"))]
     assert {"closed-forms.qcert", "reciprocity-instances.qcert", "three-term-law.qcert"} <= set(read)
@@ -102,6 +198,19 @@ def test_fuzzed_corpus():
     assert plain > 300               # the fuzzer reaches texts the plain reader reads
 
 
+def test_fuzzed_claim_lines_against_the_token_reader():
+    rng = random.Random(153)
+    plain = 0
+    seeds = [t for t in CORPUS[-6:] if read_plain(t, "certificate") is not None]
+    assert len(seeds) >= 2
+    for text in seeds:
+        for mutant in _mutants(text, rng, 300):
+            if _same(mutant):
+                plain += 1
+                assert read_plain(mutant, "certificate") == _token_by_token(mutant), mutant
+    assert plain > 80, plain          # the mutants the plain reader still reads (line by line or not)
+
+
 def test_fuzzed_expressions():
     rng = random.Random(16)
     seeds = ["dedekind(3, 7)", "-2^-3^2", "(1 + 2)*[3, 4]", "f(x, y')/g()", "1 \u2212 2 \u00b7 3 \u00d7 4",
@@ -113,6 +222,20 @@ def test_fuzzed_expressions():
     assert plain > 200
 
 
+def _lark_s_verdict(text, limits):
+    """The readers agree under these limits, and parse_certificate gives Lark's tree or Lark's
+    refusal (message and position)."""
+    _same(text, limits=limits)
+    try:
+        lark = parse_with_lark(text, "certificate", limits)
+    except CertificateError as e:
+        with pytest.raises(CertificateError) as caught:
+            parsing.parse_certificate(text, limits=limits)
+        assert (caught.value.message, caught.value.line, caught.value.column) == (e.message, e.line, e.column)
+    else:
+        assert parsing.parse_certificate(text, limits=limits).statements == tuple(lark)
+
+
 @pytest.mark.parametrize("limits", [Limits(nesting=3), Limits(tokens=40), Limits(literal_digits=3),
                                     Limits(list_length=1)], ids=["nesting", "tokens", "digits", "list"])
 def test_budgets_are_lark_s(limits):
@@ -120,15 +243,7 @@ def test_budgets_are_lark_s(limits):
     texts = ["claim f(g(h(k(1)))) = 1\n", "claim " + " + ".join(["1"] * 30) + " = 30\n",
              "claim 12345 = 12345\n", "claim [1, 2] = [1, 2]\n"]
     for text in texts:
-        _same(text, limits=limits)
-        try:
-            lark = parse_with_lark(text, "certificate", limits)
-        except CertificateError as e:
-            with pytest.raises(CertificateError) as caught:
-                parsing.parse_certificate(text, limits=limits)
-            assert (caught.value.message, caught.value.line, caught.value.column) == (e.message, e.line, e.column)
-        else:
-            assert parsing.parse_certificate(text, limits=limits).statements == tuple(lark)
+        _lark_s_verdict(text, limits)
 
 
 @settings(max_examples=300, deadline=None)
@@ -137,6 +252,50 @@ def test_token_soups(pieces):
     text = " ".join(pieces)
     _same(text)
     _same(text, "expr")
+
+
+@pytest.mark.parametrize("tokens", range(1, 75))
+def test_token_budget_at_claim_lines(tokens):
+    """Every token budget around the size of a text of one-line claims and literal sums: the
+    plain reader gives the grammar's tree or gives up, and the refusal is Lark's."""
+    text = ("claim a: dedekind(1, 5) = 0\nclaim b: f(-2, 3,4) <= -1/3\nclaim b2:dedekind( 1,7 )=1/2\n"
+            "claim 1 + 2 + 3 - 4 = 2\n")
+    limits = Limits(tokens=tokens)
+    _lark_s_verdict(text, limits)
+
+
+def _fewest_tokens(read, text):
+    """The smallest token budget at which `read` reads the text."""
+    low, high = 1, 10 * len(text)
+    while low < high:
+        middle = (low + high) // 2
+        low, high = (low, middle) if read(text, Limits(tokens=middle)) is not None else (middle + 1, high)
+    return low
+
+
+def test_the_line_readers_count_tokens_as_the_token_reader_does():
+    """A long sum and a run of claims need the budget the token reader needs, no more (an
+    overcount once sent the one-megabyte line 1+1+...+1 to Lark); for the sum that is the
+    budget Lark needs too, and one fewer is Lark's refusal."""
+    terms = "claim " + "+".join(["1"] * 1000) + " = 1000\n"
+    claims = "".join(f"claim c{i}: dedekind({i}, 7)\t= -{i} / 12\n" for i in range(20)) + "claim 1 + 2 - 3 = 0\n"
+
+    def plain(text, limits):
+        return read_plain(text, "certificate", limits)
+    for text in (terms, claims):
+        assert _fewest_tokens(plain, text) == _fewest_tokens(_token_by_token, text)
+    assert _fewest_tokens(plain, terms) == 2006          # claim, 1999, =, 1000 and 4 runs of blanks
+    parse_with_lark(terms, "certificate", Limits(tokens=2006))
+    with pytest.raises(CertificateError, match="more than 2005 tokens"):
+        parse_with_lark(terms, "certificate", Limits(tokens=2005))
+
+
+@pytest.mark.parametrize("limits", [Limits(nesting=1), Limits(nesting=2), Limits(literal_digits=2),
+                                    Limits(literal_digits=20)], ids=["nesting1", "nesting2", "digits2", "digits20"])
+def test_claim_line_budgets_are_lark_s(limits):
+    text = ("claim c: dedekind(-12345678901234567890, 7) = -1/12\nclaim d: f(1, 2, -3, 4) = 5/6\n"
+            "claim 1 + 22 + 333 = 356\n")
+    _lark_s_verdict(text, limits)
 
 
 def test_long_line_and_deep_nesting():

@@ -141,6 +141,8 @@ class PlainReader:
         self.plain_roles = {k: frozenset((k,)) for k in ("NAME", "INT", "STRING") if k in self.small}
         self.multiline = frozenset(name for name, regex, _ in terminals if _may_span_lines(regex))
         self.number_call_pattern = self._number_call_pattern() if self.enabled else None
+        self.claim_line, self.claim_argument = _claim_line_patterns(self) if self.enabled else (None, None)
+        self.sum_term = _sum_term_pattern(self) if self.enabled else None
 
     def _number_call_pattern(self):
         """NAME(INT, ..., INT) on one line, blanks (spaces, tabs) around any token: `call` and
@@ -154,8 +156,6 @@ class PlainReader:
             return None
         blank = "[ \t]*"
         return re.compile(f"{blank}({self.small['NAME'].pattern}){blank}\\(([0-9 \t,]*)\\){blank}")
-        self.claim_line, self.claim_argument = _claim_line_patterns(self) if self.enabled else (None, None)
-        self.sum_term = _sum_term_pattern(self) if self.enabled else None
 
     # -- tokens ----------------------------------------------------------------
     def _start(self, text: str, limits):

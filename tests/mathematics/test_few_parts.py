@@ -135,7 +135,7 @@ def test_recursion_against_fourier_dedekind_near_ten_thousand():
 
 def test_plan_takes_the_fast_paths():
     assert plan(10**30, (10**9 + 7, 10**9 + 9, 10**9 + 21)).method == "few parts"
-    assert plan(10**12, (10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33)).method == "recursion"
+    assert plan(10**12, (10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33)).method in ("recursion", "cones")
     assert plan(10**30, (3, 5, 7, 11, 13)).method in ("Fourier-Dedekind", "waves")
     assert plan(50, (1, 2, 3, 4, 5)).method == "table"
     # parts above n are never used, and a common divisor is divided out
@@ -157,12 +157,25 @@ def test_extended_below_the_threshold_by_reciprocity():
 
 def test_budget_refuses_with_the_estimate():
     spec = REGISTRY["partitions"]
-    big = tuple(Fraction(10**9 + k) for k in (0, 1, 3, 7))
+    big = tuple(Fraction(10**9 + k) for k in (0, 1, 3, 7, 9, 13))
     with pytest.raises(BudgetExceeded) as info:
         spec.call((Fraction(10**30), big), DEFAULT_LIMITS)
     message = info.value.message
-    assert "4 pairwise coprime parts by 4 Fourier-Dedekind sums modulo parts up to 1000000007" in message
+    assert "6 parts up to 1000000013 by Barvinok's signed cones" in message
     assert "over the limit terms = 3000000" in message and "--limit terms=N" in message
     # three parts of any size cost nothing worth counting
     value = spec.call((Fraction(10**30), big[:3]), DEFAULT_LIMITS)
     assert value == three_parts(10**30, 10**9, 10**9 + 1, 10**9 + 3)
+
+
+def test_cones_against_recursion_and_fourier_dedekind():
+    # Barvinok's cones of the simplex {x >= 0 : a.x = n} against two methods that share nothing with them
+    for parts, n in (((10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33), 10**12 + 12345),
+                     ((9973, 10007, 9967, 10009), 4 * 10**5 + 12345)):
+        cones = plan_named("cones", n, parts)
+        assert cones.run() == plan_named("recursion", n, parts).run()
+    for parts in ((9973, 10007, 9967, 10009), (101, 9973, 10007, 9967, 10037)):
+        for n in (10**30 + 7, 10**6 + 1, sum(parts)):
+            assert plan_named("cones", n, parts).run() == partitions_by_fourier_dedekind(n, parts)
+    # four parts of a billion at n = 10^30 now fit the default budget, by the cones
+    assert plan(10**30, (10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33)).method == "cones"

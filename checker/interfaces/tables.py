@@ -447,8 +447,8 @@ class _NotUtf8(Exception):
         self.byte, self.line, self.bodies, self.ends = byte, line, bodies, ends
 
     def error(self) -> UnreadableFile:
-        return UnreadableFile(f"the file is not UTF-8 text: byte {self.byte} (counted from 0) cannot be decoded, "
-                              f"in line {self.line}; nothing from there on was checked", self.line, 1)
+        return UnreadableFile(f"the file is not UTF-8 text: byte {self.byte} (counted from 0) cannot be decoded; "
+                              "nothing from this line on was checked", self.line, 1)
 
 
 _KEYS = ({"expression", "value"}, {"function", "args", "value"}, {"function", "value"})
@@ -843,7 +843,6 @@ def _check_range(raw, reader: _Reader, start: int, end, progress=None) -> _Part:
     csv_format = reader.fmt == "csv"
     try:
         for offset, data in _blocks(raw, start, end, csv_format):
-            check_time()
             if csv_format:
                 part.quotes += data.count(b'"')
             first = reader.lines + 1
@@ -855,9 +854,6 @@ def _check_range(raw, reader: _Reader, start: int, end, progress=None) -> _Part:
             rows = _check_lines(reader, bodies, ends, first, ev, part)
             if progress:
                 progress(rows)
-    except OutOfTime as e:
-        part.problems.append(("table", reader.lines + 1, 1, e.message, "limit"))
-        part.stopped = True
     except _Stop:
         part.stopped = True
     except CertificateError as e:
@@ -875,6 +871,13 @@ def _check_lines(reader: _Reader, bodies: list, ends, first: int, ev: Evaluator,
     """Check the rows of a block of lines into `part`; the number of rows."""
     i, n, rows = 0, len(bodies), 0
     problems = part.problems
+    if reader.header is None and reader.fmt == "csv" and n:
+        _, i = reader.record(bodies, ends, 0, first)      # the header
+    try:
+        check_time()                                      # once a block: plain rows take microseconds
+    except OutOfTime as e:
+        problems.append(("table", first + i, 1, e.message, "limit"))
+        raise _Stop() from None
     while i < n:
         if reader.fast is not None:
             # the plain rows of a function with an integer test: one regex match and the test

@@ -6,12 +6,14 @@ compared with python-flint (test-only) row by row.
 """
 from __future__ import annotations
 
+import io
 import os
 import signal
 import subprocess
 import sys
 import time
 from fractions import Fraction
+from importlib.metadata import entry_points
 from pathlib import Path
 
 import flint
@@ -232,8 +234,8 @@ def test_the_command_on_a_large_table_by_default(tmp_path):
     path = _big(tmp_path, wrong=True)
     outs = []
     for extra in ([], ["--jobs", "1"], ["--jobs", "3"]):
-        out = __import__("io").StringIO()
-        assert main(["check", "--no-time", *extra, str(path)], out=out, err=__import__("io").StringIO()) == 1
+        out = io.StringIO()
+        assert main(["check", "--no-time", *extra, str(path)], out=out, err=io.StringIO()) == 1
         outs.append(out.getvalue())
     assert outs[0] == outs[1] == outs[2] and outs[0].count("is not 1/16") == 300
 
@@ -245,7 +247,7 @@ def test_the_pytest_plugin_with_workers(pytester, monkeypatch):
     monkeypatch.setattr(tables, "_run_workers", lambda *a: started.append(1) or real(*a))
     pytester.path.joinpath("bad.csv").write_text("function,h,k,value\n" + ROW * 200 + "dedekind,5,17,1/16\n"
                                                  + ROW * 200 + "dedekind,1,3,5\n")
-    names = {ep.name for ep in __import__("importlib.metadata").metadata.entry_points(group="pytest11")}
+    names = {ep.name for ep in entry_points(group="pytest11")}
     plugin = [] if "quasicert" in names else ["-p", "checker.interfaces.pytest_plugin"]
     result = pytester.runpytest_inprocess(*plugin, "--qcert", "-p", "no:cacheprovider")
     result.assert_outcomes(failed=1)

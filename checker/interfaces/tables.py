@@ -921,6 +921,12 @@ def _fork_context():
     return multiprocessing.get_context("fork") if "fork" in multiprocessing.get_all_start_methods() else None
 
 
+def _worker_context():
+    """How workers start: forked where possible, else as the platform's default (a new interpreter)."""
+    import multiprocessing
+    return _fork_context() or multiprocessing.get_context()
+
+
 #: bytes of table per worker process before a second process pays (see default_jobs)
 BYTES_PER_WORKER = 1 << 20
 BYTES_PER_WORKER_SPAWNED = 32 << 20
@@ -929,14 +935,19 @@ BYTES_PER_WORKER_SPAWNED = 32 << 20
 def default_jobs(size: int) -> int:
     """Worker processes for a table of `size` bytes: one per BYTES_PER_WORKER (a MiB, some 10,000
     rows of 20-digit Dedekind sums, 50 ms of work against a few ms to start a forked process), at
-    most the processors this process may use; where processes cannot be forked (Windows, and
-    macOS by default) they start a new interpreter, and one per 32 MiB."""
+    most one per idle processor (those this process may use, less the 1-minute load average: on a
+    busy machine a second process only takes turns with the first); where processes cannot be
+    forked (Windows, and macOS by default) they start a new interpreter, and one per 32 MiB."""
     try:
         cpus = len(os.sched_getaffinity(0))
     except (AttributeError, OSError):
         cpus = os.cpu_count() or 1
+    try:
+        idle = cpus - int(os.getloadavg()[0] + 0.5)
+    except (AttributeError, OSError):
+        idle = cpus
     per = BYTES_PER_WORKER if _fork_context() is not None else BYTES_PER_WORKER_SPAWNED
-    return max(1, min(cpus, size // per))
+    return max(1, min(idle, size // per))
 
 
 def check_table(path, limits: Limits = DEFAULT_LIMITS, jobs: int | None = None, progress=None, stream=None,
@@ -1054,9 +1065,8 @@ def _split(path: Path, reader: _Reader, size: int, jobs: int):
 
 def _run_workers(path: Path, fmt: str, header, limits: Limits, ranges: list, progress):
     """The _Part of each range, checked in processes; None if they cannot be started."""
-    import multiprocessing
     from multiprocessing.connection import wait
-    context = _fork_context() or multiprocessing.get_context()
+    context = _worker_context()
     deadline = current_deadline()                        # the same instant for every worker
     workers, links = [], {}
     try:

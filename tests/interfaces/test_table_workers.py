@@ -78,8 +78,12 @@ def test_every_wrong_row_in_file_order_whatever_the_workers(tmp_path):
 
 
 def test_the_default_uses_workers_for_large_tables_only(tmp_path, monkeypatch):
+    cpus = 4
+    monkeypatch.setattr(os, "sched_getaffinity", lambda pid: {0, 1, 2, 3}, raising=False)
+    monkeypatch.setattr(os, "getloadavg", lambda: (cpus - 0.7, 0.0, 0.0))
+    assert default_jobs(10 ** 12) == 1                # a busy machine: one process
+    monkeypatch.setattr(os, "getloadavg", lambda: (0.2, 0.0, 0.0))
     assert default_jobs(1000) == 1 and default_jobs(0) == 1
-    cpus = len(os.sched_getaffinity(0)) if hasattr(os, "sched_getaffinity") else os.cpu_count()
     assert default_jobs(10 ** 12) == cpus
     started = []
     real = tables._run_workers
@@ -199,9 +203,17 @@ def test_a_byte_that_is_not_utf8_ends_the_table_at_its_line(tmp_path):
     assert one.failures[1].message.startswith(f"the file is not UTF-8 text: byte {len(head) + 19}")
 
 
-def _big(tmp_path, wrong=False):
+def _big(tmp_path, groups=300):
+    """999 right rows of 20 digits and a wrong one, `groups` times (300: 27 MB)."""
     path = tmp_path / "big.csv"
-    path.write_text("function,h,k,value\n" + (ROW * 999 + ("dedekind,5,17,1/16\n" if wrong else ROW)) * 300)
+    path.write_text("function,h,k,value\n" + (ROW * 999 + "dedekind,5,17,1/16\n") * groups)
+    return path
+
+
+def _many_wrong(tmp_path):
+    """30,000 rows (2.7 MB: two workers by default on an idle machine), 6,000 of them wrong."""
+    path = tmp_path / "wrong.csv"
+    path.write_text("function,h,k,value\n" + (ROW * 4 + "dedekind,5,17,1/16\n") * 6000)
     return path
 
 
@@ -219,7 +231,7 @@ def test_ctrl_c_stops_the_workers_and_says_so(tmp_path):
 
 
 def test_a_closed_pipe_ends_quietly_with_workers(tmp_path):
-    path = _big(tmp_path, wrong=True)
+    path = _many_wrong(tmp_path)
     results = []
     for jobs in ("1", "2"):
         shell = f'"{sys.executable}" -m checker check --jobs {jobs} "{path}" | head -n 2; ' \
@@ -231,17 +243,19 @@ def test_a_closed_pipe_ends_quietly_with_workers(tmp_path):
 
 
 def test_the_command_on_a_large_table_by_default(tmp_path):
-    path = _big(tmp_path, wrong=True)
+    path = _many_wrong(tmp_path)
     outs = []
     for extra in ([], ["--jobs", "1"], ["--jobs", "3"]):
         out = io.StringIO()
         assert main(["check", "--no-time", *extra, str(path)], out=out, err=io.StringIO()) == 1
         outs.append(out.getvalue())
-    assert outs[0] == outs[1] == outs[2] and outs[0].count("is not 1/16") == 300
+    assert outs[0] == outs[1] == outs[2] and outs[0].count("is not 1/16") == 6000
 
 
 def test_the_pytest_plugin_with_workers(pytester, monkeypatch):
     monkeypatch.setattr(tables, "BYTES_PER_WORKER", 1000)     # so that this small table is split
+    monkeypatch.setattr(os, "getloadavg", lambda: (0.0, 0.0, 0.0))
+    monkeypatch.setattr(os, "sched_getaffinity", lambda pid: {0, 1}, raising=False)
     started = []
     real = tables._run_workers
     monkeypatch.setattr(tables, "_run_workers", lambda *a: started.append(1) or real(*a))
@@ -254,3 +268,15 @@ def test_the_pytest_plugin_with_workers(pytester, monkeypatch):
     result.stdout.fnmatch_lines(["*bad.csv:202:*dedekind(5, 17) is not 1/16*",
                                  "*bad.csv:403:*dedekind(1, 3) is not 5*"])
     assert started
+
+
+def test_workers_started_as_new_interpreters_where_fork_is_missing(tmp_path, monkeypatch):
+    # Windows and macOS start workers with 'spawn': the worker function and its arguments travel by pickle
+    import multiprocessing
+    path = tmp_path / "t.csv"
+    wrong = write(path, 3000, digits=20, wrong_every=700)
+    monkeypatch.setattr(tables, "_fork_context", lambda: None)
+    monkeypatch.setattr(tables, "_worker_context", lambda: multiprocessing.get_context("spawn"))
+    assert default_jobs(20 << 20) == 1                         # a new interpreter costs more: 32 MiB a worker
+    one = same_in_workers(path, jobs=(2,))
+    assert [f.line for f in one.failures] == wrong

@@ -420,8 +420,8 @@ def _parser() -> argparse.ArgumentParser:
                         "by default it fails with exit status 4")
     c.add_argument("--jobs", type=int, default=None, metavar="N",
                    help="spread files, or the rows of a table, over N processes (same verdicts and order); "
-                        "by default files are checked in one process and a table of more than 2 MiB in one "
-                        "process per MiB up to the number of processors; --jobs 1 keeps everything in one "
+                        "by default files are checked in one process, and a table of 2 MiB or more in one "
+                        "process per MiB, at most one per idle processor; --jobs 1 keeps everything in one "
                         "process")
     c.add_argument("--every-failure", action="store_true",
                    help="go on past the first failure and list every failing step (always on for json and "

@@ -280,3 +280,12 @@ def test_workers_started_as_new_interpreters_where_fork_is_missing(tmp_path, mon
     assert default_jobs(20 << 20) == 1                         # a new interpreter costs more: 32 MiB a worker
     one = same_in_workers(path, jobs=(2,))
     assert [f.line for f in one.failures] == wrong
+
+
+def test_workers_on_a_terminal(tmp_path):
+    from test_ci import _on_terminal              # a pseudo-terminal: the progress bar is drawn
+    path = _many_wrong(tmp_path)
+    code, shown = _on_terminal(["check", "--jobs", "2", str(path)], tmp_path)
+    assert code == 1 and "Traceback" not in shown and "internal error" not in shown
+    assert f"{path}:6:15: failed: row at line 6: dedekind(5, 17) is not 1/16" in shown
+    assert "1 table, 24000 rows verified, 6000 failures" in shown

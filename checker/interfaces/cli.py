@@ -421,7 +421,7 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--jobs", type=int, default=None, metavar="N",
                    help="spread files, or the rows of a table, over N processes (same verdicts and order); "
                         "by default files are checked in one process, and a table of 2 MiB or more in one "
-                        "process per MiB, at most one per idle processor; --jobs 1 keeps everything in one "
+                        "process per MiB, at most one per processor; --jobs 1 keeps everything in one "
                         "process")
     c.add_argument("--every-failure", action="store_true",
                    help="go on past the first failure and list every failing step (always on for json and "

@@ -935,19 +935,14 @@ BYTES_PER_WORKER_SPAWNED = 32 << 20
 def default_jobs(size: int) -> int:
     """Worker processes for a table of `size` bytes: one per BYTES_PER_WORKER (a MiB, some 10,000
     rows of 20-digit Dedekind sums, 50 ms of work against a few ms to start a forked process), at
-    most one per idle processor (those this process may use, less the 1-minute load average: on a
-    busy machine a second process only takes turns with the first); where processes cannot be
-    forked (Windows, and macOS by default) they start a new interpreter, and one per 32 MiB."""
+    most one per processor this process may use.  Where processes cannot be forked (Windows, and
+    macOS by default) they start a new interpreter, and one per 32 MiB."""
     try:
         cpus = len(os.sched_getaffinity(0))
     except (AttributeError, OSError):
         cpus = os.cpu_count() or 1
-    try:
-        idle = cpus - int(os.getloadavg()[0] + 0.5)
-    except (AttributeError, OSError):
-        idle = cpus
     per = BYTES_PER_WORKER if _fork_context() is not None else BYTES_PER_WORKER_SPAWNED
-    return max(1, min(idle, size // per))
+    return max(1, min(cpus, size // per))
 
 
 def check_table(path, limits: Limits = DEFAULT_LIMITS, jobs: int | None = None, progress=None, stream=None,

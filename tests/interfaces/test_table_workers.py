@@ -163,14 +163,15 @@ def test_the_seconds_limit_stops_the_table_at_the_same_row(tmp_path):
 
 def test_a_slow_row_stops_the_table_in_one_and_in_two_workers(tmp_path):
     # the rows after the one that reached the limit are not checked, whichever process had them
-    limits = DEFAULT_LIMITS.with_overrides({"seconds": 1})
+    # the slow row would take some 20 s; the limit stops it after 1 s
+    limits = DEFAULT_LIMITS.with_overrides({"seconds": 1, "terms": 10 ** 9})
     path = tmp_path / "t.csv"
     path.write_text("expression,value\n" + '"dedekind(5, 17)",1/16\n' + '"dedekind(1, 3)",1/18\n' * 200
-                    + '"dedekind_rademacher(1, 2999999, 0, 0)",0\n' + '"dedekind(1, 3)",1/18\n' * 200
+                    + '"dedekind_rademacher(1, 50000000, 0, 0)",0\n' + '"dedekind(1, 3)",1/18\n' * 200
                     + '"dedekind(5, 17)",1/16\n')
     for jobs in (1, 2):
         report = check_table(path, limits, jobs=jobs)
-        assert [(f.line, f.kind) for f in report.failures] == [(2, "failed"), (203, "limit")], report.failures
+        assert [(f.line, f.kind) for f in report.failures] == [(2, "failed"), (203, "limit")], (jobs, report.failures)
         assert report.checked == 200
         assert "the limit seconds = 1" in report.failures[1].message
 

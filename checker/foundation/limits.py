@@ -12,7 +12,7 @@ from dataclasses import dataclass, fields, replace
 
 from .errors import BudgetExceeded, OutOfTime
 
-__all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES", "time_limit", "check_time"]
+__all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES", "time_limit", "check_time", "current_deadline"]
 
 #: limits renamed since an earlier version: old name -> new name
 FORMER_NAMES = {"unfold_terms": "definition_terms"}
@@ -108,6 +108,11 @@ class time_limit:
     def __exit__(self, *exc_info):
         _DEADLINE.reset(self.token)
         return False
+
+
+def current_deadline():
+    """(monotonic deadline, its seconds) of the current check, or None: to hand to a worker process."""
+    return _DEADLINE.get()
 
 
 def check_time() -> None:

@@ -185,10 +185,10 @@ def bundled_certificates() -> list:
 
 def _check_one(args):
     """Check one path (a certificate or a table); module level so that processes can run it."""
-    path, limits, keep_going, paranoid, allow_empty, seed = args
+    path, limits, keep_going, paranoid, allow_empty, seed, jobs = args
     from .files import check_file
     return check_file(path, limits, keep_going=keep_going, paranoid=paranoid, allow_empty=allow_empty,
-                      seed=seed)
+                      seed=seed, jobs=jobs)
 
 
 def _check_stdin(kind: str, limits, keep_going, paranoid, allow_empty, seed=None):
@@ -268,7 +268,7 @@ def _cmd_check(ns, out, err) -> int:
     from .tables import check_table, is_table
     limits = _limits_from(ns.limit)
     paths = certificate_paths(ns.paths) if ns.paths else bundled_certificates()
-    if ns.jobs < 1:
+    if ns.jobs is not None and ns.jobs < 1:
         raise UsageError("--jobs wants a whole number >= 1")
     if not paths:
         if ns.allow_empty:
@@ -283,7 +283,10 @@ def _cmd_check(ns, out, err) -> int:
     machine = ns.format != "text"
     keep_going = ns.every_failure or machine          # JSON and SARIF carry every failure
     start = time.perf_counter()
-    jobs = [(p, limits, keep_going, ns.paranoid, ns.allow_empty, ns.seed) for p in paths]
+    spread = ns.jobs is not None and ns.jobs > 1 and len(paths) > 1 and not any(str(p) == "-" for p in paths)
+    # files spread over processes check their tables in their own process; otherwise a table gets
+    # --jobs workers, or its default number (checker.interfaces.tables.default_jobs)
+    jobs = [(p, limits, keep_going, ns.paranoid, ns.allow_empty, ns.seed, 1 if spread else ns.jobs) for p in paths]
     bar = _progress_bar(len(paths), err)
     reports = []
     if len(paths) == 1 and str(paths[0]) != "-" and is_table(paths[0]):
@@ -294,7 +297,7 @@ def _cmd_check(ns, out, err) -> int:
                                      ns.allow_empty)]
         if rows_bar is not None:
             rows_bar.close()
-    elif ns.jobs > 1 and len(paths) > 1 and not any(str(p) == "-" for p in paths):
+    elif spread:
         from concurrent.futures import ProcessPoolExecutor
         from .tables import bounded_map
         with ProcessPoolExecutor(ns.jobs) as pool:
@@ -415,8 +418,11 @@ def _parser() -> argparse.ArgumentParser:
     c.add_argument("--allow-empty", action="store_true",
                    help="let a certificate or table that checks nothing (or no input at all) pass; "
                         "by default it fails with exit status 4")
-    c.add_argument("--jobs", type=int, default=1, metavar="N",
-                   help="spread files, or the rows of one table, over N processes (same verdicts and order)")
+    c.add_argument("--jobs", type=int, default=None, metavar="N",
+                   help="spread files, or the rows of a table, over N processes (same verdicts and order); "
+                        "by default files are checked in one process, and a table of 2 MiB or more in one "
+                        "process per MiB, at most one per processor; --jobs 1 keeps everything in one "
+                        "process")
     c.add_argument("--every-failure", action="store_true",
                    help="go on past the first failure and list every failing step (always on for json and "
                         "sarif; tables always list every failing row)")

@@ -36,11 +36,13 @@ def require_something(report: Report, allow_empty: bool = False) -> Report:
 
 
 def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False, paranoid: bool = False,
-               allow_empty: bool = False, seed: int | None = None) -> Report:
-    """Check a certificate or a table file; tables list every failing row (keep_going is for certificates)."""
+               allow_empty: bool = False, seed: int | None = None, jobs: int | None = None) -> Report:
+    """Check a certificate or a table file; tables list every failing row (keep_going is for certificates).
+
+    `jobs` is for tables: worker processes (None: by the table's size, see tables.default_jobs)."""
     path = Path(path)
     if is_table(path):
-        report = check_table(path, limits)
+        report = check_table(path, limits, jobs)
     else:
         try:
             text = read_certificate_text(path, limits)

@@ -33,20 +33,24 @@ from __future__ import annotations
 import csv
 import io
 import json
+import os
 import re
 import unicodedata
 from fractions import Fraction
 from pathlib import Path
+from contextlib import nullcontext
 from typing import Iterator
 
-from ..foundation.errors import CertificateError, UnreadableFile
-from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..foundation.errors import CertificateError, DomainError, OutOfTime, UnreadableFile
+from ..foundation.limits import DEFAULT_LIMITS, Limits, check_time, current_deadline, time_limit
 from ..foundation.numbers import text_int, value_text
 from ..kernel.evaluation import Evaluator
 from ..kernel.functions import REGISTRY
+from ..mathematics.dedekind import dedekind_equals
 from ..replay.report import Failure, Report
 
-__all__ = ["TABLE_SUFFIXES", "is_table", "check_table", "table_rows", "check_rows", "parameter_names"]
+__all__ = ["TABLE_SUFFIXES", "is_table", "check_table", "default_jobs", "table_rows", "check_rows",
+           "parameter_names"]
 
 TABLE_SUFFIXES = (".csv", ".jsonl")
 
@@ -245,101 +249,206 @@ def _header_refusal(function: str, given: tuple) -> str | None:
 # A row is (line, kind, payload, text, fmt): kind "expression" (text, value),
 # "function" (name, args, value) or "bad" (where, message, exit code); text is
 # the row as written and fmt "csv" or "jsonl", for locating fields later.
+#
+# The file is read as bytes in blocks that end at a line end (and, in CSV, where
+# the count of '"' so far is even, so that no quoted record is cut); each block
+# is decoded on its own, so a byte that is not UTF-8 is reported at its offset
+# in the file and its line.  Lines end as Python's universal newlines end them
+# (\n, \r\n, \r), the same in one process and in N.
+
+_BLOCK_BYTES = 1 << 18
+_LINE_END = re.compile("(\r\n|\r|\n)")
+
 
 def table_rows(path) -> Iterator[tuple]:
-    """The rows of a table file (or of standard input for path '-', with `suffix`)."""
+    """The rows of a table file, in order, as tuples (see above)."""
     path = Path(path)
-    suffix = path.suffix.lower()
+    reader = _Reader(path.suffix.lower(), DEFAULT_LIMITS)
     try:
-        handle = open(path, encoding="utf-8", newline="")
+        raw = open(path, "rb")
     except OSError as e:
         raise UnreadableFile(f"cannot read the file: {e.strerror}") from None
-    with handle:
-        yield from stream_rows(handle, suffix)
+    with raw:
+        for offset, data in _blocks(raw, 0, None, reader.fmt == "csv"):
+            first = reader.lines + 1
+            try:
+                bodies, ends = reader.lines_of(offset, data)
+            except _NotUtf8 as e:
+                yield from reader.rows(e.bodies, e.ends, first)
+                raise e.error() from None
+            yield from reader.rows(bodies, ends, first)
 
 
-def stream_rows(handle, suffix: str) -> Iterator[tuple]:
-    try:
-        if suffix == ".csv":
-            yield from _csv_rows(handle)
-        elif suffix == ".jsonl":
-            yield from _jsonl_rows(handle)
-        else:
-            raise UnreadableFile(f"a table must end in .csv or .jsonl, not '{suffix}'")
-    except UnicodeDecodeError as e:
-        raise UnreadableFile(f"the file is not UTF-8 text (byte {e.start} of a block cannot be decoded)") from None
-
-
-def _physical_lines(handle):
-    """(line number, text) with a leading byte-order mark dropped; line ends kept."""
-    for number, text in enumerate(handle, 1):
-        if number == 1 and text.startswith("\ufeff"):
-            text = text[1:]
-        yield number, text
-
-
-def _csv_records(handle):
-    """(first line, record text, fields); a quoted field may span lines."""
-    lines = _physical_lines(handle)
-    for number, text in lines:
-        if '"' not in text:
-            body = text.rstrip("\r\n")
-            yield number, body, body.split(",")
+def _blocks(raw, start: int, end, quotes: bool):
+    """(offset, bytes) of raw from `start` to `end` (None: the end of the file), in pieces that end at a
+    line end where, if `quotes`, the number of '"' since `start` is even; the last piece takes the rest."""
+    pending, offset = b"", start
+    while True:
+        want = _BLOCK_BYTES if end is None else min(_BLOCK_BYTES, end - offset - len(pending))
+        chunk = raw.read(want) if want > 0 else b""
+        if not chunk:
+            if pending:
+                yield offset, pending
+            return
+        data = pending + chunk if pending else chunk
+        cut = _last_line_end(data)
+        if cut and quotes and data.count(b'"', 0, cut) % 2:
+            cut = 0                 # inside a quoted record: read on until the quotes close
+        if not cut:
+            pending = data
             continue
-        while text.count('"') % 2:
-            nxt = next(lines, None)
-            if nxt is None:
-                break
-            text += nxt[1]
-        body = text.rstrip("\r\n")
-        try:
-            fields = next(csv.reader([body], strict=True), [])
-        except csv.Error as e:
-            yield number, body, e
-            continue
-        yield number, body, fields
+        yield offset, data[:cut] if cut < len(data) else data
+        offset += cut
+        pending = data[cut:]
 
 
-def _csv_rows(handle):
-    records = _csv_records(handle)
-    first = next(records, None)
-    if first is None:
-        return
-    line, body, header = first
-    if isinstance(header, Exception) or not body.strip():
+def _last_line_end(data: bytes) -> int:
+    """The offset just after the last line end of data that is surely one (0 if none)."""
+    cut = data.rfind(b"\n") + 1
+    if not cut:
+        cut = data.rfind(b"\r") + 1
+        if cut == len(data):        # a \r last: the \n of \r\n may follow in the next piece
+            cut = 0
+    return cut
+
+
+def _header(number: int, body: str, fields) -> tuple:
+    """(layout, argument names, width) from the header record, or a CertificateError."""
+    if isinstance(fields, Exception) or not body.strip():
         raise CertificateError("the first line must be a header: 'expression,value' or "
-                               "'function,<argument names>,value'", line, 1)
-    names = [h.strip().lower() for h in header]
+                               "'function,<argument names>,value'", number, 1)
+    names = [h.strip().lower() for h in fields]
     if names == ["expression", "value"]:
         layout = "expression"
     elif len(names) >= 2 and names[0] == "function" and names[-1] == "value":
         layout = "function"
     else:
         raise CertificateError("the header must be 'expression,value' or 'function,<argument names>,value', "
-                               f"not '{body}'", line, 1)
-    params = tuple(names[1:-1])
-    width = len(names)
-    refusals: dict = {}
-    for line, body, row in records:
+                               f"not '{body}'", number, 1)
+    return layout, tuple(names[1:-1]), len(names)
+
+
+# Rows a mathematics function can verify from integers alone, without building the exact
+# value: (function, its integer test).  A row takes this path only if it is written
+# NAME,INT,...,INT,P[/Q] in ASCII digits; anything else, and every row the test does not
+# accept, goes the general way, which also words the failure.
+_INTEGER_TESTS = {"dedekind": dedekind_equals}
+
+
+class _Reader:
+    """Turns decoded lines into rows, CSV or JSON Lines; keeps the header and the line count."""
+
+    def __init__(self, suffix: str, limits: Limits, header=None, offset: int = 0):
+        if suffix not in TABLE_SUFFIXES:
+            raise UnreadableFile(f"a table must end in .csv or .jsonl, not '{suffix}'")
+        self.fmt = suffix[1:]
+        self.limits = limits
+        self.lines = 0                   # lines read so far
+        self.at_start = offset == 0      # a byte-order mark may come first
+        self.header = None
+        self.fast = None
+        self.refusals: dict = {}
+        if header is not None:
+            self.set_header(header)
+
+    def set_header(self, header):
+        self.header = header
+        layout, params, width = header
+        self.fast = None
+        if layout == "function":
+            for name, test in _INTEGER_TESTS.items():
+                if REGISTRY[name].arity == (width - 2, width - 2) and _header_refusal(name, params) is None:
+                    ints = ",".join(["(-?[0-9]+)"] * (width - 2))
+                    self.fast = (re.compile(f"{re.escape(name)},{ints},(-?[0-9]+)(?:/([0-9]+))?",
+                                            re.ASCII).fullmatch, test)
+
+    def lines_of(self, offset: int, data: bytes) -> tuple[list, object]:
+        """(lines without their ends, their ends: one string for all, or a list) of a block."""
+        try:
+            text = data.decode("utf-8")
+        except UnicodeDecodeError as e:
+            # the whole lines before the bad byte are rows; then the table ends with the error
+            good = _last_line_end(data[:e.start])
+            bodies, ends = self.lines_of(offset, data[:good]) if good else ([], "\n")
+            raise _NotUtf8(offset + e.start, self.lines + 1, bodies, ends) from None
+        if self.at_start:
+            self.at_start = False
+            if text.startswith("\ufeff"):
+                text = text[1:]
+        if "\r" not in text:
+            bodies, ends = text.split("\n"), "\n"
+        elif text.count("\r") == text.count("\r\n") == text.count("\n"):
+            bodies, ends = text.split("\r\n"), "\r\n"
+        else:
+            parts = _LINE_END.split(text)
+            bodies, ends = parts[0::2], parts[1::2] + [""]
+        if bodies[-1] == "":
+            bodies.pop()                 # the text ended with a line end
+        elif isinstance(ends, str):
+            ends = [ends] * (len(bodies) - 1) + [""]
+        self.lines += len(bodies)
+        return bodies, ends
+
+    def rows(self, bodies: list, ends, first: int):
+        """The rows of a block of lines (blank and header lines give none), line numbers from `first`."""
+        i, n = 0, len(bodies)
+        while i < n:
+            row, i = self.record(bodies, ends, i, first)
+            if row is not None:
+                yield row
+
+    def record(self, bodies: list, ends, i: int, first: int) -> tuple:
+        """(the row that starts at line i of the block or None, the index after it)."""
+        body, number = bodies[i], first + i
+        i += 1
+        if self.fmt == "jsonl":
+            return _jsonl_row(number, body), i
+        if '"' in body:
+            uniform = ends if isinstance(ends, str) else None
+            text = body + (uniform or ends[i - 1])
+            while text.count('"') % 2 and i < len(bodies):
+                text += bodies[i] + (uniform or ends[i])
+                i += 1
+            body = text.rstrip("\r\n")
+            try:
+                fields = next(csv.reader([body], strict=True), [])
+            except csv.Error as e:
+                fields = e
+        else:
+            fields = body.split(",")
+        if self.header is None:
+            self.set_header(_header(number, body, fields))
+            return None, i
+        return self.csv_row(number, body, fields), i
+
+    def csv_row(self, line: int, body: str, row):
         if isinstance(row, Exception):
-            yield line, "bad", (None, f"not a CSV row: {row}", 1), body, "csv"
-            continue
+            return line, "bad", (None, f"not a CSV row: {row}", 1), body, "csv"
         if len(row) == 1 and not row[0].strip():
-            continue
+            return None
+        layout, _, width = self.header
         if len(row) != width:
-            yield line, "bad", (None, f"the row has {len(row)} columns, the header {width}", 1), body, "csv"
-            continue
+            return line, "bad", (None, f"the row has {len(row)} columns, the header {width}", 1), body, "csv"
         if layout == "expression":
-            yield line, "expression", (row[0], row[1]), body, "csv"
-            continue
+            return line, "expression", (row[0], row[1]), body, "csv"
         name = row[0].strip()
         if name in REGISTRY:
-            if name not in refusals:
-                refusals[name] = _header_refusal(name, params)
-            if refusals[name]:
-                yield line, "bad", (0, refusals[name], 1), body, "csv"
-                continue
-        yield line, "function", (name, row[1:-1], row[-1]), body, "csv"
+            if name not in self.refusals:
+                self.refusals[name] = _header_refusal(name, self.header[1])
+            if self.refusals[name]:
+                return line, "bad", (0, self.refusals[name], 1), body, "csv"
+        return line, "function", (name, row[1:-1], row[-1]), body, "csv"
+
+
+class _NotUtf8(Exception):
+    """A block with a byte that is not UTF-8: its whole lines before it, and where it is."""
+
+    def __init__(self, byte: int, line: int, bodies: list, ends):
+        self.byte, self.line, self.bodies, self.ends = byte, line, bodies, ends
+
+    def error(self) -> UnreadableFile:
+        return UnreadableFile(f"the file is not UTF-8 text: byte {self.byte} (counted from 0) cannot be decoded; "
+                              "nothing from this line on was checked", self.line, 1)
 
 
 _KEYS = ({"expression", "value"}, {"function", "args", "value"}, {"function", "value"})
@@ -353,25 +462,22 @@ def _pairs_once(pairs):
     return dict(pairs)
 
 
-def _jsonl_rows(handle):
-    for line, text in _physical_lines(handle):
-        if not text.strip():
-            continue
-        try:
-            obj = json.loads(text, object_pairs_hook=_pairs_once)
-        except _RowError as e:
-            yield line, "bad", (e.where, e.message, 1), text, "jsonl"
-            continue
-        except json.JSONDecodeError as e:
-            yield line, "bad", (("@", e.colno), f"not JSON: {e.msg}", 1), text, "jsonl"
-            continue
-        except (ValueError, RecursionError) as e:
-            yield line, "bad", (None, f"not JSON that quasicert reads: {e}", 1), text, "jsonl"
-            continue
-        try:
-            yield (line, *_json_row(obj), text, "jsonl")
-        except _RowError as e:
-            yield line, "bad", (e.where, e.message, 1), text, "jsonl"
+def _jsonl_row(line: int, text: str):
+    """The row of one JSON Lines line (None if blank)."""
+    if not text.strip():
+        return None
+    try:
+        obj = json.loads(text, object_pairs_hook=_pairs_once)
+    except _RowError as e:
+        return line, "bad", (e.where, e.message, 1), text, "jsonl"
+    except json.JSONDecodeError as e:
+        return line, "bad", (("@", e.colno), f"not JSON: {e.msg}", 1), text, "jsonl"
+    except (ValueError, RecursionError) as e:
+        return line, "bad", (None, f"not JSON that quasicert reads: {e}", 1), text, "jsonl"
+    try:
+        return (line, *_json_row(obj), text, "jsonl")
+    except _RowError as e:
+        return line, "bad", (e.where, e.message, 1), text, "jsonl"
 
 
 def _json_row(obj):
@@ -649,34 +755,43 @@ def _failure(line, text, fmt, where, message, details=(), kind="error", claimed=
                    claimed=claimed, exact=exact, exit_code=exit_code, row=text.rstrip("\r\n"))
 
 
+def _row_problem(row, ev: Evaluator):
+    """None when the row holds, else the arguments of _failure that describe it (line first)."""
+    line, kind, payload, text, fmt = row
+    try:
+        if kind == "function":
+            _function_row(payload, ev, fmt)
+        elif kind == "expression":
+            _expression_row(payload, ev, fmt)
+        else:
+            where, message, code = payload
+            raise _RowError(where, message, code)
+        return None
+    except _Wrong as w:
+        details = [f"the row claims: {w.written}"]
+        if value_text(w.claimed) != w.written:
+            details.append(f"which is:       {value_text(w.claimed)}")
+        details += [f"exact value:    {value_text(w.exact)}",
+                    f"difference (claimed - exact): {value_text(w.claimed - w.exact)}"]
+        return (line, text, fmt, w.where, f"{w.call} is not {_short(w.written)}", details, "failed", w.claimed,
+                w.exact, 1)
+    except _RowError as e:
+        return (line, text, fmt, e.where, e.message, (), "limit" if e.exit_code == 2 else "error", None, None,
+                e.exit_code)
+    except CertificateError as e:
+        return (line, text, fmt, None, e.message, (), e.kind, None, None, 2 if e.kind == "limit" else 1)
+
+
 def check_rows(rows, limits: Limits = DEFAULT_LIMITS) -> tuple[int, list]:
     """(rows verified, failures) for an iterable of rows from `table_rows`."""
     ev = Evaluator({}, limits)
     ok, failures = 0, []
-    for line, kind, payload, text, fmt in rows:
-        try:
-            if kind == "function":
-                _function_row(payload, ev, fmt)
-            elif kind == "expression":
-                _expression_row(payload, ev, fmt)
-            else:
-                where, message, code = payload
-                raise _RowError(where, message, code)
+    for row in rows:
+        problem = _row_problem(row, ev)
+        if problem is None:
             ok += 1
-        except _Wrong as w:
-            details = [f"the row claims: {w.written}"]
-            if value_text(w.claimed) != w.written:
-                details.append(f"which is:       {value_text(w.claimed)}")
-            details += [f"exact value:    {value_text(w.exact)}",
-                        f"difference (claimed - exact): {value_text(w.claimed - w.exact)}"]
-            failures.append(_failure(line, text, fmt, w.where, f"{w.call} is not {_short(w.written)}", details,
-                                     "failed", w.claimed, w.exact))
-        except _RowError as e:
-            failures.append(_failure(line, text, fmt, e.where, e.message, exit_code=e.exit_code,
-                                     kind="limit" if e.exit_code == 2 else "error"))
-        except CertificateError as e:
-            failures.append(_failure(line, text, fmt, None, e.message, kind=e.kind,
-                                     exit_code=2 if e.kind == "limit" else 1))
+        else:
+            failures.append(_failure(*problem))
     return ok, failures
 
 
@@ -696,46 +811,319 @@ def _batches(rows, size):
         yield batch
 
 
-def _check_batch(args):
-    batch, limits = args
-    return check_rows(batch, limits)
+# -- checking a table: one process, or N processes on byte ranges -----------------------
+
+class _Part:
+    """What the check of a byte range found: rows verified, problems in order, lines read.
+
+    A problem is ("row", arguments of _failure) or ("table", line, column, message, kind): the
+    second ends the table (a header, a byte that is not UTF-8, the `seconds` limit).  Lines are
+    counted from the range's start, so that N ranges add up to the file's numbering.
+    """
+
+    def __init__(self):
+        self.ok, self.problems, self.lines, self.stopped, self.quotes = 0, [], 0, False, 0
+
+    def failures(self, offset: int) -> list:
+        out = []
+        for p in self.problems:
+            if p[0] == "row":
+                line, *rest = p[1]
+                out.append(_failure(line + offset, *rest))
+            else:
+                _, line, column, message, kind = p
+                out.append(Failure(None if line is None else line + offset, column, message, kind=kind,
+                                   exit_code=2))
+        return out
 
 
-def check_table(path, limits: Limits = DEFAULT_LIMITS, jobs: int = 1, progress=None, stream=None,
+def _check_range(raw, reader: _Reader, start: int, end, progress=None) -> _Part:
+    """Check the rows of raw's bytes [start, end) (end None: to the end) with `reader`."""
+    part = _Part()
+    ev = Evaluator({}, reader.limits)
+    csv_format = reader.fmt == "csv"
+    try:
+        for offset, data in _blocks(raw, start, end, csv_format):
+            if csv_format:
+                part.quotes += data.count(b'"')
+            first = reader.lines + 1
+            try:
+                bodies, ends = reader.lines_of(offset, data)
+            except _NotUtf8 as e:
+                _check_lines(reader, e.bodies, e.ends, first, ev, part)
+                raise e.error() from None
+            rows = _check_lines(reader, bodies, ends, first, ev, part)
+            if progress:
+                progress(rows)
+    except _Stop:
+        part.stopped = True
+    except CertificateError as e:
+        part.problems.append(("table", e.line, e.column, e.message, e.kind))
+        part.stopped = True
+    part.lines = reader.lines
+    return part
+
+
+class _Stop(Exception):
+    """The `seconds` limit was reached in a row (already reported)."""
+
+
+def _check_lines(reader: _Reader, bodies: list, ends, first: int, ev: Evaluator, part: _Part) -> int:
+    """Check the rows of a block of lines into `part`; the number of rows."""
+    i, n, rows = 0, len(bodies), 0
+    problems = part.problems
+    if reader.header is None and reader.fmt == "csv" and n:
+        _, i = reader.record(bodies, ends, 0, first)      # the header
+    try:
+        check_time()                                      # once a block: plain rows take microseconds
+    except OutOfTime as e:
+        problems.append(("table", first + i, 1, e.message, "limit"))
+        raise _Stop() from None
+    while i < n:
+        if reader.fast is not None:
+            # the plain rows of a function with an integer test: one regex match and the test
+            match, test = reader.fast
+            start = i
+            while i < n:
+                m = match(bodies[i])
+                if m is None:
+                    break
+                h, k, p, q = m.groups()
+                try:
+                    if not test(int(h), int(k), int(p), int(q) if q else 1):
+                        break
+                except (ValueError, DomainError):      # over int()'s digit limit, k or q zero
+                    break
+                i += 1
+            rows += i - start
+            part.ok += i - start
+            if i == n:
+                break
+        row, i = reader.record(bodies, ends, i, first)
+        if row is None:
+            continue
+        rows += 1
+        problem = _row_problem(row, ev)
+        if problem is None:
+            part.ok += 1
+            continue
+        problems.append(("row", problem))
+        if problem[6] == "limit":
+            try:
+                check_time()
+            except OutOfTime:
+                raise _Stop() from None
+    return rows
+
+
+def _fork_context():
+    """multiprocessing's fork context where the system has it (workers start in milliseconds), else None."""
+    import multiprocessing
+    return multiprocessing.get_context("fork") if "fork" in multiprocessing.get_all_start_methods() else None
+
+
+def _worker_context():
+    """How workers start: forked where possible, else as the platform's default (a new interpreter)."""
+    import multiprocessing
+    return _fork_context() or multiprocessing.get_context()
+
+
+#: bytes of table per worker process before a second process pays (see default_jobs)
+BYTES_PER_WORKER = 1 << 20
+BYTES_PER_WORKER_SPAWNED = 32 << 20
+
+
+def default_jobs(size: int) -> int:
+    """Worker processes for a table of `size` bytes: one per BYTES_PER_WORKER (a MiB, some 10,000
+    rows of 20-digit Dedekind sums, 50 ms of work against a few ms to start a forked process), at
+    most one per processor this process may use.  Where processes cannot be forked (Windows, and
+    macOS by default) they start a new interpreter, and one per 32 MiB."""
+    try:
+        cpus = len(os.sched_getaffinity(0))
+    except (AttributeError, OSError):
+        cpus = os.cpu_count() or 1
+    per = BYTES_PER_WORKER if _fork_context() is not None else BYTES_PER_WORKER_SPAWNED
+    return max(1, min(cpus, size // per))
+
+
+def check_table(path, limits: Limits = DEFAULT_LIMITS, jobs: int | None = None, progress=None, stream=None,
                 name: str | None = None) -> Report:
-    """Check every row of a CSV or JSON Lines table; the report lists each wrong row.
+    """Check every row of a CSV or JSON Lines table; the report lists each wrong row, in file order.
 
-    `stream` (an open text file, e.g. standard input) is read instead of `path`,
-    whose suffix then only says the format.  An empty table (no rows) gives a
-    report with nothing checked and no failure: the callers decide (see
-    checker.interfaces.files.require_something).
+    `jobs` worker processes each read and check a range of the file's lines (None: default_jobs of
+    the file's size; 1: this process only); the report is the same for any number.  `stream` (an
+    open file, e.g. standard input) is read instead of `path`, whose suffix then only says the
+    format, in this process.  An empty table (no rows) gives a report with nothing checked and
+    no failure: the callers decide (see checker.interfaces.files.require_something).
     """
     import time
     path = Path(path)
     report = Report(name=name or str(path))
     start = time.perf_counter()
-    try:
-        rows = stream_rows(stream, path.suffix.lower()) if stream is not None else table_rows(path)
-        if jobs <= 1:
-            for batch in _batches(rows, 2000):
-                ok, failures = check_rows(batch, limits)
-                report.checked += ok
-                report.failures.extend(failures)
-                if progress:
-                    progress(len(batch))
-        else:
-            from concurrent.futures import ProcessPoolExecutor
-            with ProcessPoolExecutor(jobs) as pool:
-                work = ((batch, limits) for batch in _batches(rows, 5000))
-                for ok, failures in bounded_map(pool, _check_batch, work, 2 * jobs):
-                    report.checked += ok
-                    report.failures.extend(failures)
-                    if progress:
-                        progress(ok + len(failures))
-    except CertificateError as e:
-        report.failures.append(Failure(e.line, e.column, e.message, kind=e.kind, exit_code=2))
+    with time_limit(limits.seconds):
+        try:
+            reader = _Reader(path.suffix.lower(), limits)
+        except CertificateError as e:
+            report.failures.append(Failure(e.line, e.column, e.message, kind=e.kind, exit_code=2))
+            report.seconds = time.perf_counter() - start
+            return report
+        part = None
+        if stream is None:
+            part = _check_in_processes(path, reader, limits, jobs, progress)
+        if part is None:
+            part = _check_one_process(path, reader, stream, progress)
+    report.checked = part.ok
+    report.failures.extend(part.failures(0))
     report.seconds = time.perf_counter() - start
     return report
+
+
+def _check_one_process(path: Path, reader: _Reader, stream, progress) -> _Part:
+    if stream is not None:
+        raw = getattr(stream, "buffer", None)
+        if raw is None:                       # a text stream without bytes beneath (tests, notebooks)
+            raw = io.BytesIO(stream.read().encode("utf-8"))
+        return _check_range(raw, reader, 0, None, progress)
+    try:
+        raw = open(path, "rb")
+    except OSError as e:
+        part = _Part()
+        part.problems.append(("table", None, None, f"cannot read the file: {e.strerror}", "unreadable"))
+        return part
+    with raw:
+        return _check_range(raw, reader, 0, None, progress)
+
+
+def _check_in_processes(path: Path, reader: _Reader, limits: Limits, jobs, progress):
+    """The table checked by worker processes on byte ranges, or None when one process should do it."""
+    try:
+        size = path.stat().st_size
+    except OSError:
+        return None
+    if jobs is None:
+        jobs = default_jobs(size)
+    if jobs <= 1:
+        return None
+    try:
+        ranges, header = _split(path, reader, size, jobs)
+    except (OSError, CertificateError, UnicodeDecodeError):
+        return None                           # the one process reports it
+    if len(ranges) < 2:
+        return None
+    parts = _run_workers(path, reader.fmt, header, limits, ranges, progress)
+    if parts is None or any(p.quotes % 2 for p in parts[:-1]):
+        # a quoted CSV record spans two ranges (or a worker could not run): one process reads it
+        return None
+    whole = _Part()
+    offset = 1 if header is not None else 0
+    for p in parts:
+        whole.ok += p.ok
+        whole.problems.extend(_shifted(p.problems, offset))
+        offset += p.lines
+        if p.stopped:
+            break
+    return whole
+
+
+def _shifted(problems: list, offset: int) -> list:
+    out = []
+    for p in problems:
+        if p[0] == "row":
+            line, *rest = p[1]
+            out.append(("row", (line + offset, *rest)))
+        else:
+            _, line, column, message, kind = p
+            out.append(("table", None if line is None else line + offset, column, message, kind))
+    return out
+
+
+def _split(path: Path, reader: _Reader, size: int, jobs: int):
+    """Byte ranges at line starts, one per worker, after the header; and the header (CSV)."""
+    with open(path, "rb") as raw:
+        begin, header = 0, None
+        if reader.fmt == "csv":
+            first = raw.readline()
+            if b'"' in first or b"\r" in first.rstrip(b"\r\n") or not first.endswith(b"\n"):
+                return [], None               # a header the one process must read
+            text = first.decode("utf-8").removeprefix("\ufeff").rstrip("\r\n")
+            header = _header(1, text, text.split(","))
+            begin = len(first)
+        points = [begin]
+        for i in range(1, jobs):
+            raw.seek(max(begin, begin + (size - begin) * i // jobs - 1))
+            raw.readline()                    # to the next line start
+            at = raw.tell()
+            if points[-1] < at < size:
+                points.append(at)
+        points.append(size)
+    return list(zip(points, points[1:])), header
+
+
+def _run_workers(path: Path, fmt: str, header, limits: Limits, ranges: list, progress):
+    """The _Part of each range, checked in processes; None if they cannot be started."""
+    from multiprocessing.connection import wait
+    context = _worker_context()
+    deadline = current_deadline()                        # the same instant for every worker
+    workers, links = [], {}
+    try:
+        for index, (begin, end) in enumerate(ranges):
+            receiving, sending = context.Pipe(duplex=False)
+            worker = context.Process(target=_worker, args=(str(path), fmt, header, limits, begin, end, deadline,
+                                                           sending), daemon=True)
+            worker.start()
+            sending.close()
+            workers.append(worker)
+            links[receiving] = index
+    except OSError:
+        for worker in workers:
+            worker.terminate()
+        return None
+    parts = [None] * len(ranges)
+    try:
+        while links:
+            for link in wait(list(links)):
+                try:
+                    message = link.recv()
+                except EOFError:
+                    raise RuntimeError(f"a worker process of the table check ended without a result "
+                                       f"(exit code {workers[links[link]].exitcode})") from None
+                if message[0] == "rows":
+                    if progress:
+                        progress(message[1])
+                    continue
+                index = links.pop(link)
+                link.close()
+                if message[0] == "crash":
+                    raise message[1]
+                parts[index] = message[1]
+    finally:
+        if None in parts:                                 # an interrupt or an error: stop the others
+            for worker in workers:
+                if worker.is_alive():
+                    worker.terminate()
+        for worker in workers:
+            worker.join()
+    return parts
+
+
+def _worker(path: str, fmt: str, header, limits: Limits, begin: int, end: int, deadline, link) -> None:
+    """One worker process: check the rows of [begin, end), send progress and the _Part."""
+    import signal
+    signal.signal(signal.SIGINT, signal.SIG_IGN)      # Ctrl-C is the parent's to handle
+    try:
+        reader = _Reader("." + fmt, limits, header, offset=begin)
+        with time_limit(deadline[1], at=deadline[0]) if deadline else nullcontext():
+            with open(path, "rb") as raw:
+                raw.seek(begin)
+                part = _check_range(raw, reader, begin, end, lambda n: link.send(("rows", n)))
+        link.send(("done", part))
+    except BaseException as e:                         # a bug: the parent raises it
+        try:
+            link.send(("crash", e))
+        except Exception:
+            link.send(("crash", RuntimeError(f"{type(e).__name__}: {e}")))
+    finally:
+        link.close()
 
 
 def bounded_map(pool, fn, items, window: int):

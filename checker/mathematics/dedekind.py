@@ -43,7 +43,7 @@ from ..foundation.errors import DomainError
 from ..foundation.limits import check_time
 
 __all__ = [
-    "dedekind", "dedekind_by_definition", "dedekind_along_euclid",
+    "dedekind", "twelve_k_dedekind", "dedekind_equals", "dedekind_by_definition", "dedekind_along_euclid",
     "reciprocity_term", "dedekind_rademacher", "generalized_dedekind",
     "generalized_dedekind_by_definition", "generalized_dedekind_by_reciprocity",
 ]
@@ -88,28 +88,33 @@ def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int]:
     if r1.bit_length() > _BATCH_BITS:
         alt, n, r0, r1, u0, u1 = _batches(r0, r1, want_inverse)
     # the small tail, two quotients a turn; `ahead` collects the quotients
-    # whose sign is that of the next one, `behind` the others
+    # whose sign is that of the next one, `behind` the others.  `//` and `-=`
+    # cost less than divmod's call and tuple on numbers of a few machine words.
     sign = 1 if n % 2 == 0 else -1
     ahead = behind = 0
     if want_inverse:
         while True:
-            q, r0 = divmod(r0, r1)
+            q = r0 // r1
+            r0 -= q * r1
             ahead += q
             u0 -= q * u1
             if not r0:
                 return alt + sign * (ahead - behind), n + 1, u1
-            q, r1 = divmod(r1, r0)
+            q = r1 // r0
+            r1 -= q * r0
             behind += q
             u1 -= q * u0
             n += 2
             if not r1:
                 return alt + sign * (ahead - behind), n, u0
     while True:
-        q, r0 = divmod(r0, r1)
+        q = r0 // r1
+        r0 -= q * r1
         ahead += q
         if not r0:
             return alt + sign * (ahead - behind), n + 1, 0
-        q, r1 = divmod(r1, r0)
+        q = r1 // r0
+        r1 -= q * r0
         behind += q
         n += 2
         if not r1:
@@ -200,22 +205,70 @@ def _reduced_pair(h: int, k: int) -> tuple[int, int]:
 
 def dedekind(h, k) -> Fraction:
     """s(h, k) for integers h and k >= 1, in O(log k) arithmetic steps."""
+    numerator, k = twelve_k_dedekind(h, k)
+    return Fraction(numerator, 12 * k)
+
+
+def twelve_k_dedekind(h, k) -> tuple[int, int]:
+    """(N, k') with s(h, k) = N / (12 k'), k' = k / gcd(h, k): the integer form, nothing reduced.
+
+    N = k' (q_1 - q_2 + ... +- q_n) + h' + h'* - k' (3 if n is odd else 1) for
+    h' = (h mod k) / gcd(h, k) (the formula above); N = 0 when k' = 1.
+
+    >>> twelve_k_dedekind(5, 17), twelve_k_dedekind(10, 34)
+    ((12, 17), (12, 17))
+    """
     h = as_integer(h, "the first argument of dedekind")
     k = as_positive(k, "the second argument of dedekind")
     h, k = _reduced_pair(h, k)
     if k == 1:
-        return Fraction(0)
+        return 0, 1
     invert = _gmp_invert if k.bit_length() > _GMP_BITS else None
     if invert is _NOT_LOADED:
         invert = _load_gmp()
     if invert is not None:
-        alt, n, _ = _euclid(k, h, False)
-        inverse = int(invert(h, k))
-    else:
-        alt, n, inverse = _euclid(k, h, True)
-        inverse %= k
-    numerator = k * (alt - (3 if n % 2 else 1)) + h + inverse
-    return Fraction(numerator, 12 * k)
+        without_inverse, _ = _without_inverse(h, k, False)
+        return without_inverse + int(invert(h, k)), k
+    without_inverse, inverse = _without_inverse(h, k, True)
+    return without_inverse + inverse % k, k
+
+
+def _without_inverse(h: int, k: int, want_inverse: bool) -> tuple[int, int]:
+    """(12 k s(h, k) - h*, u) for coprime 0 < h < k, with u = h* (mod k) if want_inverse."""
+    alt, n, inverse = _euclid(k, h, want_inverse)
+    return k * (alt - (3 if n % 2 else 1)) + h, inverse
+
+
+def dedekind_equals(h: int, k: int, p: int, q: int) -> bool:
+    """Whether s(h, k) = p/q, for ints h, k >= 1, p and q != 0: no fraction built or reduced.
+
+    With h', k' as in twelve_k_dedekind, s(h, k) = p/q exactly when 12 k' p / q
+    is an integer N and N minus the part of the formula without h'* is the
+    inverse of h' modulo k' in [1, k'): that inverse is unique there, so this
+    is N = 12 k' s(h, k), and the modular inverse is checked by one product
+    instead of being computed.
+
+    >>> dedekind_equals(5, 17, 1, 17), dedekind_equals(5, 17, -2, -34), dedekind_equals(5, 17, 1, 16)
+    (True, True, False)
+    """
+    if type(h) is not int or type(k) is not int or type(p) is not int or type(q) is not int:
+        raise TypeError("dedekind_equals takes ints")
+    if k < 1 or q == 0:
+        raise DomainError("dedekind_equals needs k >= 1 and q != 0")
+    if q < 0:
+        p, q = -p, -q
+    h %= k
+    g = gcd(h, k)
+    if g != 1:
+        h //= g
+        k //= g
+    if k == 1:
+        return p == 0
+    scaled, rest = divmod(12 * k * p, q)        # the claimed 12 k s(h, k)
+    if rest:
+        return False
+    inverse = scaled - _without_inverse(h, k, False)[0]
+    return 0 < inverse < k and inverse * h % k == 1
 
 
 def dedekind_by_definition(h, k) -> Fraction:

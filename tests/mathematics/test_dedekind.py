@@ -5,9 +5,10 @@ from math import gcd
 
 import flint
 import pytest
-from hypothesis import given, strategies as st
+from hypothesis import given, settings, strategies as st
 
 from checker.mathematics.dedekind import (dedekind, dedekind_along_euclid, dedekind_by_definition,
+                                          dedekind_equals, twelve_k_dedekind,
                                           generalized_dedekind_by_reciprocity,
                               dedekind_rademacher, generalized_dedekind,
                               generalized_dedekind_by_definition, reciprocity_term)
@@ -337,3 +338,73 @@ def test_small_batches_against_the_definition(h, k, batch):
         assert dedekind(h, k) == dedekind_by_definition(h, k)
     finally:
         module._LEADING_BITS, module._STOP, module._BATCH_BITS = saved
+
+
+# -- the integer test of table rows: dedekind_equals and twelve_k_dedekind ----------------------
+
+def _flint_dedekind(h, k):
+    return flint_fraction(flint.fmpq.dedekind_sum(h, k))    # python-flint, test-only reference
+
+
+_SIZES = st.sampled_from([1, 3, 10, 20, 21, 40, 130, 400])
+
+
+@st.composite
+def _claims(draw):
+    """(h, k, p, q): h of any sign, k >= 1 (k = 1 and common factors included), a claim p/q that is
+    the value written with any nonzero factor (negative denominators too), or the value moved a little."""
+    digits = draw(_SIZES)
+    k = draw(st.integers(1, 10 ** digits))
+    h = draw(st.integers(-(10 ** digits), 10 ** digits))
+    if draw(st.booleans()):
+        g = draw(st.integers(1, 10 ** draw(_SIZES)))
+        h, k = g * h, g * k                                # not coprime
+    value = dedekind_by_definition(h, k) if k < 300 else _flint_dedekind(h % k, k)
+    m = draw(st.integers(-10 ** 25, 10 ** 25).filter(bool))
+    p, q = value.numerator * m, value.denominator * m
+    if draw(st.booleans()):
+        how = draw(st.sampled_from(["numerator", "denominator", "zero", "twelve k", "inverse"]))
+        if how == "numerator":
+            p += draw(st.integers(-3, 3).filter(bool))
+        elif how == "denominator":
+            q += draw(st.integers(-3, 3).filter(lambda d: d and q + d))
+        elif how == "zero":
+            p = 0
+        elif how == "twelve k":
+            p, q = value.numerator * 12 * k + draw(st.integers(-2, 2)), 12 * k   # off by a little over 12k
+        else:       # off by a multiple of 1/(12k'): the inverse moved by the modulus
+            k2 = value.denominator
+            p, q = value.numerator * 12 * k2 // value.denominator + k2 * draw(st.integers(-2, 2)), 12 * k2
+    return h, k, p, q
+
+
+@given(_claims())
+@settings(max_examples=400, deadline=None)
+def test_dedekind_equals_agrees_with_the_value_and_with_flint(claim):
+    h, k, p, q = claim
+    truth = _flint_dedekind(h % k, k) if k > 1 else Fraction(0)
+    assert truth == dedekind(h, k)
+    assert dedekind_equals(h, k, p, q) is (Fraction(p, q) == truth)
+    numerator, reduced_k = twelve_k_dedekind(h, k)
+    assert Fraction(numerator, 12 * reduced_k) == truth and k % reduced_k == 0
+
+
+def test_dedekind_equals_small_values_exhaustively():
+    # every h mod k for k <= 40 against the definition, the right value and its neighbours 1/(12k) away
+    for k in range(1, 41):
+        for h in range(-k, 2 * k):
+            value = dedekind_by_definition(h, k)
+            assert dedekind_equals(h, k, value.numerator, value.denominator)
+            assert dedekind_equals(h, k, -value.numerator, -value.denominator)
+            for d in (-2, -1, 1, 2):
+                wrong = value + Fraction(d, 12 * k)
+                assert not dedekind_equals(h, k, wrong.numerator, wrong.denominator)
+
+
+def test_dedekind_equals_refuses_what_is_not_defined():
+    with pytest.raises(DomainError):
+        dedekind_equals(5, 0, 0, 1)
+    with pytest.raises(DomainError):
+        dedekind_equals(5, 17, 1, 0)
+    with pytest.raises(TypeError):
+        dedekind_equals(5, Fraction(17), 1, 17)

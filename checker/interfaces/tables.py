@@ -139,8 +139,18 @@ def _number(text: str):
     return Fraction(num, den)
 
 
+def _no_comment(text: str, where) -> None:
+    """A table field holds no comment: in the language `#` hides the rest of the text, which a
+    reader of the table still sees (`5 # 3` would be read as 5)."""
+    if "#" in text:
+        raise _RowError(where, "a '#' starts a comment in quasicert's language, and a table field holds none "
+                               "(the checker would skip what a reader of the table sees): remove the '#' "
+                               "and what follows it")
+
+
 def _literal(text: str, ev: Evaluator, where):
     """A number, a list of numbers, or (through the parser) any expression of the language."""
+    _no_comment(text, where)
     if _UNUSUAL.search(text):
         _odd_characters(text, where)
     try:
@@ -716,9 +726,9 @@ def _expression_row(payload, ev: Evaluator, fmt: str):
     where_expr, where_value = (0, 1) if fmt == "csv" else ("expression", "value")
     if _UNUSUAL.search(text):
         _odd_characters(text, where_expr)
-    # one call only: "f(a) + g(b)" also matches the pattern, with the unbalanced inside "a) + g(b";
-    # and no comment: read piece by piece, `f(5 #(, 1), 17)` would lose the `#` that ends the text
-    m = _CALL.match(text) if "#" not in text else None
+    _no_comment(text, where_expr)       # read piece by piece, `f(5 #(, 1), 17)` would lose its `#`
+    # one call only: "f(a) + g(b)" also matches the pattern, with the unbalanced inside "a) + g(b"
+    m = _CALL.match(text)
     spec = REGISTRY.get(m.group(1)) if m and _balanced(m.group(2)) else None
     exact = None
     if spec is not None:

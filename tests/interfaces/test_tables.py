@@ -90,14 +90,21 @@ def test_bad_rows(tmp_path, text, message):
     assert report.failures[-1].message == message
 
 
-def test_a_comment_in_an_expression_row_reads_as_the_parser_reads_it(tmp_path):
-    # tests/unsound/csv-comment-inside-call.csv: the one-call short path must not split at commas
-    # that a comment swallowed; s(5, 17) = 1/17 (README), and a trailing comment is only a comment
+def test_a_comment_in_a_table_field_is_refused(tmp_path):
+    # tests/unsound/csv-comment-inside-call.csv: `#` hides the rest of a field from the checker but
+    # not from a reader of the table, so no field may hold one (expression rows, function
+    # arguments and values alike); s(5, 17) = 1/17 (Rademacher & Grosswald's table, from memory)
     path = tmp_path / "t.csv"
-    path.write_text('expression,value\n"dedekind(5 #(, 1), 17)",1/17\n"dedekind(5, 17) # s(5, 17)",1/17\n')
+    path.write_text('expression,value\n"dedekind(5 #(, 1), 17)",1/17\n"dedekind(5, 17) # s(5, 17)",1/17\n'
+                    '"dedekind(5, 17)",1/17\n')
     report = check_table(path)
-    assert [f.line for f in report.failures] == [2]
-    assert "the text stops too early" in report.failures[0].message
+    assert [f.line for f in report.failures] == [2, 3]
+    assert all("a '#' starts a comment" in f.message for f in report.failures)
+    path = tmp_path / "f.csv"
+    path.write_text("function,h,k,value\ndedekind,5 # 3,17,1/17\ndedekind,5,17,1/17 # 0\ndedekind,5,17,1/17\n")
+    report = check_table(path)
+    assert [f.line for f in report.failures] == [2, 3]
+    assert all("a '#' starts a comment" in f.message for f in report.failures)
 
 
 def test_generator_script_runs():

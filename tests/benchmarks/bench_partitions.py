@@ -65,7 +65,7 @@ def main(quick=False):
     show("3 parts near 10^9", 10**30, NEAR_10_9[:3])
     show("3 parts near 10^30", 10**100, [10**30 + 1, 10**30 + 3, 10**30 + 7])
     print(" four and five parts: recursion over the largest parts while n / part is small,"
-          " Fourier-Dedekind sums modulo each part otherwise")
+          " Fourier-Dedekind sums modulo each part or Barvinok's cones of the simplex otherwise (cheapest estimate)")
     for k in (4, 5):
         show(f"{k} parts near 10^4", 10**30, NEAR_10_4[:k], waves(10**30, NEAR_10_4[:k]), "waves")
     show("4 parts near 10^6", 10**7, NEAR_10_6[:4], lambda: partitions_by_table(10**7, NEAR_10_6[:4]), "table")

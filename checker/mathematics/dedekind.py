@@ -49,9 +49,11 @@ __all__ = [
 ]
 
 _LEADING_BITS = 300          # bits of the leading parts simulated per batch (tuned by bench_kernel.py)
-_GMP_BITS = 0                # below this, carrying the cofactor beats a call into gmpy2
+_GMP_BITS = 160              # from this size on gmpy2 is imported for its inverse (~20 ms, once)
 _STOP = 1 << (_LEADING_BITS // 2 + 4)    # where a batch stops: rarely refused by the check
 _BATCH_BITS = _LEADING_BITS + 64         # batches while the smaller number is longer than this
+_BARE_BATCH_BITS = 1400                  # the same without cofactors: the tail, now cheaper than a
+                                         # batch's bookkeeping, does up to here (bench_kernel.py)
 
 
 def reciprocity_term(h: int, k: int) -> Fraction:
@@ -86,7 +88,7 @@ def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int, int]:
     """
     alt, n = 0, 0
     u0, u1 = 0, 1
-    if r1.bit_length() > _BATCH_BITS:
+    if r1.bit_length() > (_BATCH_BITS if want_inverse else _BARE_BATCH_BITS):
         alt, n, r0, r1, u0, u1 = _batches(r0, r1, want_inverse)
         if not r1:                     # a long gcd, reached by an exact step
             return alt, n, r0, u0
@@ -106,25 +108,23 @@ def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int, int]:
 # difference is still >= the divisor; the division's quotient then lacks the 1
 # already subtracted, which the sums make up at the end (the 1s of an even number
 # of quotients cancel in the alternating sum; an odd number leaves one +1).  The
-# remainder can only vanish after a division or a second subtraction: a step
-# r0 > r1 > 0 with quotient 1 leaves r0 - r1 > 0.  `//` and `-=` cost less than
-# divmod's call and tuple on numbers of a few machine words.
+# remainder can only vanish after a division: a step r0 > r1 > 0 with quotient 1
+# leaves r0 - r1 > 0.  Once only the larger quotients divide, divmod (one long
+# division) beats `//` and a product (5-8 % at 20-300 digits, bench_kernel.py).
 
 def _tail(r0: int, r1: int, alt: int) -> tuple[int, int, int]:
     """(alt + q_1 - q_2 + ..., parity of the number of quotients, gcd) for Euclid on r0 > r1 > 0."""
-    ahead, behind = alt, 0
+    ahead, behind, split = alt, 0, divmod
     while True:
         r0 -= r1
         if r0 >= r1:
-            q = r0 // r1
-            r0 -= q * r1
+            q, r0 = split(r0, r1)
             ahead += q
             if not r0:
                 return ahead - behind + 1, 1, r1
         r1 -= r0
         if r1 >= r0:
-            q = r1 // r0
-            r1 -= q * r0
+            q, r1 = split(r1, r0)
             behind += q
             if not r1:
                 return ahead - behind, 0, r0
@@ -133,12 +133,11 @@ def _tail(r0: int, r1: int, alt: int) -> tuple[int, int, int]:
 def _tail_with_inverse(r0: int, r1: int, u0: int, u1: int, alt: int) -> tuple[int, int, int, int]:
     """As _tail, with the cofactors: (alt + q_1 - q_2 + ..., parity, gcd, u), u the cofactor
     of the gcd (r_i = u_i r1 mod r0 for the pair given at the start)."""
-    ahead, behind = alt, 0
+    ahead, behind, split = alt, 0, divmod
     while True:
         r0 -= r1
         if r0 >= r1:
-            q = r0 // r1
-            r0 -= q * r1
+            q, r0 = split(r0, r1)
             ahead += q
             u0 -= (q + 1) * u1
             if not r0:
@@ -147,8 +146,7 @@ def _tail_with_inverse(r0: int, r1: int, u0: int, u1: int, alt: int) -> tuple[in
             u0 -= u1
         r1 -= r0
         if r1 >= r0:
-            q = r1 // r0
-            r1 -= q * r0
+            q, r1 = split(r1, r0)
             behind += q
             u1 -= (q + 1) * u0
             if not r1:
@@ -161,7 +159,8 @@ def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
     """Euclid's algorithm on coprime r0 > r1 > 0 while r1 is long, many quotients a batch (Lehmer 1938).
 
     Returns (q_1 - q_2 + ..., n, r0, r1, u0, u1) with n of the parity of the number of quotients
-    taken, (r0, r1) the remainder pair reached (r1 of at most _BATCH_BITS bits) and, with
+    taken, (r0, r1) the remainder pair reached (r1 of at most _BATCH_BITS bits, _BARE_BATCH_BITS
+    without the inverse) and, with
     want_inverse, r_i = u_i * r1_given (mod r0_given).  A batch runs Euclid on the leading
     _LEADING_BITS bits (x0, y0) while the remainder stays above _STOP; its quotients q_i >= 1 are
     only proposed: they are used after the new pair (n0, n1) = M^-1 (r0, r1), M the product of
@@ -176,7 +175,8 @@ def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
         r0, r1 = mpz(r0), mpz(r1)
     alt, n = 0, 0
     u0, u1 = 0, 1
-    size, stop, above, split = _LEADING_BITS, _STOP, _BATCH_BITS, divmod
+    size, stop, split = _LEADING_BITS, _STOP, divmod
+    above = _BATCH_BITS if want_inverse else _BARE_BATCH_BITS
     while r1.bit_length() > above:
         shift = r0.bit_length() - size
         x0 = x = int(r0 >> shift)
@@ -261,8 +261,10 @@ def twelve_k_dedekind(h, k) -> tuple[int, int]:
         return 0, 1
     invert = _gmp_invert
     if invert is _NOT_LOADED:
-        invert = _load_gmp()
-    if invert is None or k.bit_length() <= _GMP_BITS:
+        # once loaded, GMP's inverse (0.4 us at 20 digits) beats carrying the cofactors
+        # (1.2 us) at every size; a short one-off value does not pay for the import
+        invert = _load_gmp() if k.bit_length() > _GMP_BITS else None
+    if invert is None:
         without_inverse, k, inverse = _without_inverse(h, k, True)
         return without_inverse + inverse % k, k
     without_inverse, k, h = _without_inverse(h, k, False)

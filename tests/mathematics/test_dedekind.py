@@ -305,6 +305,7 @@ def test_wrong_batch_proposals_are_refused(monkeypatch, leading, stop):
     monkeypatch.setattr(module, "_LEADING_BITS", leading)
     monkeypatch.setattr(module, "_STOP", stop)
     monkeypatch.setattr(module, "_BATCH_BITS", leading + 2)
+    monkeypatch.setattr(module, "_BARE_BATCH_BITS", leading + 2)
     rng = random.Random(leading)
     pairs = _adversarial_pairs()[:6] + [random_coprime_pair(rng, d) for d in (30, 200, 700) for _ in range(4)]
     pairs = [(h % k, k) for h, k in pairs]
@@ -332,12 +333,13 @@ def test_small_batches_against_the_definition(h, k, batch):
     # The definition summed term by term, with batches made small enough to run at these k
     # (and to propose wrong quotients often, which the check must refuse)
     import checker.mathematics.dedekind as module
-    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS)
-    module._LEADING_BITS, module._STOP, module._BATCH_BITS = batch[0], batch[1], batch[0] + 2
+    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS)
+    module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = \
+        batch[0], batch[1], batch[0] + 2, batch[0] + 2
     try:
         assert dedekind(h, k) == dedekind_by_definition(h, k)
     finally:
-        module._LEADING_BITS, module._STOP, module._BATCH_BITS = saved
+        module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = saved
 
 
 # -- the integer test of table rows: dedekind_equals and twelve_k_dedekind ----------------------
@@ -346,7 +348,7 @@ def _flint_dedekind(h, k):
     return flint_fraction(flint.fmpq.dedekind_sum(h, k))    # python-flint, test-only reference
 
 
-_SIZES = st.sampled_from([1, 3, 10, 20, 21, 40, 130, 400])
+_SIZES = st.sampled_from([1, 3, 10, 20, 21, 40, 130, 400, 600])     # 600 digits: batches without the inverse
 
 
 @st.composite
@@ -432,13 +434,14 @@ def test_euclid_against_one_quotient_at_a_time(a, b, g, want_inverse, batch):
     import checker.mathematics.dedekind as module
     r0, r1 = max(a, b) * g + g, min(a, b) * g         # r0 > r1 > 0, gcd a multiple of g
     alt, n, gcd_, u = _naive_euclid(r0, r1)
-    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS)
+    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS)
     if batch:
-        module._LEADING_BITS, module._STOP, module._BATCH_BITS = batch[0], batch[1], batch[0] + 2
+        module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = \
+            batch[0], batch[1], batch[0] + 2, batch[0] + 2
     try:
         got = module._euclid(r0, r1, want_inverse)
     finally:
-        module._LEADING_BITS, module._STOP, module._BATCH_BITS = saved
+        module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = saved
     assert (got[0], got[1] % 2, got[2]) == (alt, n % 2, gcd_) and gcd_ == gcd(r0, r1)
     if want_inverse:
         assert got[3] % r0 == u and got[3] * r1 % r0 == gcd_ % r0

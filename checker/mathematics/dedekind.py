@@ -91,7 +91,7 @@ def _euclid(r0: int, r1: int, want_inverse: bool) -> tuple[int, int, int, int]:
     if r1.bit_length() > (_BATCH_BITS if want_inverse else _BARE_BATCH_BITS):
         alt, n, r0, r1, u0, u1 = _batches(r0, r1, want_inverse)
         if not r1:                     # a long gcd, reached by an exact step
-            return alt, n, r0, u0
+            return alt, n, r0, (u0 if want_inverse else 0)
     if n % 2:
         alt = -alt
     if want_inverse:
@@ -156,11 +156,11 @@ def _tail_with_inverse(r0: int, r1: int, u0: int, u1: int, alt: int) -> tuple[in
 
 
 def _batches(r0: int, r1: int, want_inverse: bool) -> tuple:
-    """Euclid's algorithm on coprime r0 > r1 > 0 while r1 is long, many quotients a batch (Lehmer 1938).
+    """Euclid's algorithm on r0 > r1 > 0 while r1 is long, many quotients a batch (Lehmer 1938).
 
     Returns (q_1 - q_2 + ..., n, r0, r1, u0, u1) with n of the parity of the number of quotients
     taken, (r0, r1) the remainder pair reached (r1 of at most _BATCH_BITS bits, _BARE_BATCH_BITS
-    without the inverse) and, with
+    without the inverse; r1 = 0 when an exact step reached a long gcd) and, with
     want_inverse, r_i = u_i * r1_given (mod r0_given).  A batch runs Euclid on the leading
     _LEADING_BITS bits (x0, y0) while the remainder stays above _STOP; its quotients q_i >= 1 are
     only proposed: they are used after the new pair (n0, n1) = M^-1 (r0, r1), M the product of

@@ -67,12 +67,21 @@ class Evaluator:
 
         The steps `number` takes on that node (each argument a Fraction, then `call`, a
         list refused) and the same errors, `tree()` making the node only when an error
-        needs its position; the value is not looked up in the memo nor remembered."""
+        needs its position; the value is not looked up in the memo nor remembered.  A
+        function whose spec `takes_ints` (no cost, no limits) gets the ints themselves, after
+        the same arity check and clock, when `_compute` would do nothing else for it."""
         try:
             spec = REGISTRY.get(name)
             if spec is None:
                 raise DomainError(_unknown_function(name))
-            v = self._compute(name, spec, tuple(map(Fraction, numbers)))
+            low, high = spec.arity
+            if spec.takes_ints and low <= len(numbers) <= high and not self.paranoid \
+                    and not self.chain_wanted and not self._along_euclid:
+                check_time()
+                v = spec.impl(*numbers)
+                self._check_size(v)
+            else:
+                v = self._compute(name, spec, tuple(map(Fraction, numbers)))
         except CertificateError as e:
             raise e.at(tree())
         except RecursionError:

@@ -173,6 +173,8 @@ class FunctionSpec:
     arithmetic: bool = False               # normal forms evaluate it on sight
     cost: Callable[..., Cost] = lambda *args: None
     limited: bool = False                  # impl takes limits=... and spends within them itself
+    takes_ints: bool = False               # impl gives the same value and errors on ints as on the
+                                           # Fractions of the same integers (no cost, not limited)
 
     def check_arity(self, count: int) -> None:
         low, high = self.arity
@@ -311,9 +313,12 @@ def _cost_lcm(*args):
     return ("integer_bits", bits, "the least common multiple")
 
 
-def _spec(name, signature, definition, impl, arity, arithmetic=False, cost=None, limited=False):
+def _spec(name, signature, definition, impl, arity, arithmetic=False, cost=None, limited=False,
+          takes_ints=False):
+    if takes_ints and (cost is not None or limited):
+        raise ValueError(f"{name}: the int path skips cost and limits, so it is for functions without them")
     return FunctionSpec(name, signature, definition, impl, arity, arithmetic,
-                        cost or (lambda *args: None), limited)
+                        cost or (lambda *args: None), limited, takes_ints)
 
 
 REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
@@ -337,7 +342,8 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
           bernoulli, (1, 2), False, _cost_bernoulli),
     _spec("periodic_bernoulli", "n, x", "B_n({x}); for n = 1 the sawtooth ((x))",
           periodic_bernoulli, (2, 2), False, _cost_bernoulli),
-    _spec("dedekind", "h, k", "s(h, k) = sum_{j=0}^{k-1} ((j/k)) ((hj/k))", dedekind, (2, 2)),
+    _spec("dedekind", "h, k", "s(h, k) = sum_{j=0}^{k-1} ((j/k)) ((hj/k))", dedekind, (2, 2),
+          takes_ints=True),    # as_integer/as_positive: the same on 5 and Fraction(5)
     _spec("dedekind_rademacher", "h, k, x, y",
           "s(h, k; x, y) = sum_{j mod k} ((h(j+y)/k + x)) (((j+y)/k))",
           dedekind_rademacher, (4, 4), False,

@@ -157,3 +157,39 @@ def test_hypothesis_dedekind_values(h, k, blank):
     assert _agree(text)
     if k >= 1:
         assert evaluate(text) == flint_fraction(flint.fmpq.dedekind_sum(h, k))
+
+
+def test_the_int_path_is_only_for_functions_without_cost_or_limits():
+    # `takes_ints` skips the Fractions and spec.call: allowed only where spec.call would add nothing
+    from checker.kernel.functions import REGISTRY, _spec
+    with_ints = [spec for spec in REGISTRY.values() if spec.takes_ints]
+    assert [spec.name for spec in with_ints] == ["dedekind"]
+    for spec in with_ints:
+        assert not spec.limited and spec.cost(Fraction(10**9), Fraction(10**9)) is None
+    with pytest.raises(ValueError):
+        _spec("x", "n", "", abs, (1, 1), cost=lambda n: ("terms", 1, "x"), takes_ints=True)
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.integers(0, 10**45), st.one_of(st.integers(0, 300), st.integers(0, 10**45)),
+       st.one_of(st.integers(1, 30), st.integers(1, 10**30)),
+       st.sampled_from([DEFAULT_LIMITS, Limits(integer_bits=40), Limits(seconds=0)]))
+def test_int_path_against_the_fraction_path(h, k, g, limits):
+    # the same value or error (kind, message, columns) from ints and from the Fractions the tree
+    # path makes, with common factors, k = 0 and k = 1; paranoid evaluation keeps the Fraction
+    # path and its second opinion
+    for text in (f"dedekind({h * g}, {k * g})", f"dedekind({h}, {k})", f"dedekind({h}, 1)", f"dedekind({h}, 0)"):
+        _agree(text, limits)
+        call = read_number_call(text, limits)
+        paranoid = Evaluator(None, limits, paranoid=True)
+        fast = _outcome(lambda: _timed(limits, lambda: Evaluator(None, limits).number_of_call(*call[:2], call.tree)))
+        slow = _outcome(lambda: _timed(limits, lambda: paranoid.number_of_call(*call[:2], call.tree)))
+        assert fast == slow, text
+        if fast[0] == "value" and limits is DEFAULT_LIMITS:
+            assert paranoid.second_opinions == (1 <= call.values[1] <= 20_000)   # the definition's range
+            assert fast[1] == flint_fraction(flint.fmpq.dedekind_sum(*call.values))   # python-flint
+
+
+def _timed(limits, fn):
+    with time_limit(limits.seconds):
+        return fn()

@@ -305,6 +305,7 @@ def test_wrong_batch_proposals_are_refused(monkeypatch, leading, stop):
     monkeypatch.setattr(module, "_LEADING_BITS", leading)
     monkeypatch.setattr(module, "_STOP", stop)
     monkeypatch.setattr(module, "_BATCH_BITS", leading + 2)
+    monkeypatch.setattr(module, "_BARE_BATCH_BITS", leading + 2)
     rng = random.Random(leading)
     pairs = _adversarial_pairs()[:6] + [random_coprime_pair(rng, d) for d in (30, 200, 700) for _ in range(4)]
     pairs = [(h % k, k) for h, k in pairs]
@@ -332,12 +333,13 @@ def test_small_batches_against_the_definition(h, k, batch):
     # The definition summed term by term, with batches made small enough to run at these k
     # (and to propose wrong quotients often, which the check must refuse)
     import checker.mathematics.dedekind as module
-    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS)
-    module._LEADING_BITS, module._STOP, module._BATCH_BITS = batch[0], batch[1], batch[0] + 2
+    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS)
+    module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = \
+        batch[0], batch[1], batch[0] + 2, batch[0] + 2
     try:
         assert dedekind(h, k) == dedekind_by_definition(h, k)
     finally:
-        module._LEADING_BITS, module._STOP, module._BATCH_BITS = saved
+        module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = saved
 
 
 # -- the integer test of table rows: dedekind_equals and twelve_k_dedekind ----------------------
@@ -346,7 +348,7 @@ def _flint_dedekind(h, k):
     return flint_fraction(flint.fmpq.dedekind_sum(h, k))    # python-flint, test-only reference
 
 
-_SIZES = st.sampled_from([1, 3, 10, 20, 21, 40, 130, 400])
+_SIZES = st.sampled_from([1, 3, 10, 20, 21, 40, 130, 400, 600])     # 600 digits: batches without the inverse
 
 
 @st.composite
@@ -408,3 +410,61 @@ def test_dedekind_equals_refuses_what_is_not_defined():
         dedekind_equals(5, 17, 1, 0)
     with pytest.raises(TypeError):
         dedekind_equals(5, Fraction(17), 1, 17)
+
+
+# -- Euclid's run gives the gcd: no separate gcd, the reduced pair from the same quotients -------
+
+def _naive_euclid(r0, r1):
+    """(q_1 - q_2 + ..., number of quotients, gcd, u with u r1 = gcd mod r0), one quotient at a time."""
+    alt, n, u0, u1, r0_given = 0, 0, 0, 1, r0
+    while r1:
+        q = r0 // r1
+        alt += q if n % 2 == 0 else -q
+        n += 1
+        r0, r1, u0, u1 = r1, r0 - q * r1, u1, u0 - q * u1
+    return alt, n, r0, u0 % r0_given
+
+
+@given(st.integers(1, 2**1500), st.integers(1, 2**1500), st.integers(1, 2**600), st.booleans(),
+       st.sampled_from([None, (8, 1), (40, 2)]))
+@settings(deadline=None)
+def test_euclid_against_one_quotient_at_a_time(a, b, g, want_inverse, batch):
+    # the tail (subtract first, divide for quotients >= 2) and the batches, also made small
+    # enough to propose wrong quotients, against the schoolbook run, on pairs with a common factor
+    import checker.mathematics.dedekind as module
+    r0, r1 = max(a, b) * g + g, min(a, b) * g         # r0 > r1 > 0, gcd a multiple of g
+    alt, n, gcd_, u = _naive_euclid(r0, r1)
+    saved = (module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS)
+    if batch:
+        module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = \
+            batch[0], batch[1], batch[0] + 2, batch[0] + 2
+    try:
+        got = module._euclid(r0, r1, want_inverse)
+    finally:
+        module._LEADING_BITS, module._STOP, module._BATCH_BITS, module._BARE_BATCH_BITS = saved
+    assert (got[0], got[1] % 2, got[2]) == (alt, n % 2, gcd_) and gcd_ == gcd(r0, r1)
+    if want_inverse:
+        assert got[3] % r0 == u and got[3] * r1 % r0 == gcd_ % r0
+
+
+@pytest.mark.parametrize("gmp", range(2))
+def test_common_factors_of_every_size_against_python_flint(monkeypatch, gmp):
+    # python-flint; the gcd comes out of the Euclid run (short, long, h dividing k, reached in
+    # a batch's exact step), and the value is that of the reduced pair
+    import checker.mathematics.dedekind as module
+    modes = _both_gmpy2_modes()
+    if gmp >= len(modes):
+        pytest.skip("gmpy2 is not installed")
+    monkeypatch.setattr(module, "_gmp_invert", modes[gmp])
+    rng = random.Random(41)
+    for g_bits, digits in ((1, 5), (40, 20), (200, 100), (700, 30), (1200, 400), (3, 1000)):
+        for _ in range(6):
+            h, k = random_coprime_pair(rng, digits)
+            g = rng.getrandbits(g_bits) | 1
+            truth = _flint_dedekind(h % k, k)
+            assert dedekind(g * h, g * k) == truth
+            assert twelve_k_dedekind(g * h, g * k) == twelve_k_dedekind(h, k)
+    for h in (3, 2**400 + 1, 10**150 + 7):               # h divides k: one quotient, gcd h
+        for m in (2, 3, 10**50 + 1, 2**800):
+            exact(dedekind(h, h * m), _flint_dedekind(1, m))
+            exact(dedekind(-h, h * m), -_flint_dedekind(1, m))

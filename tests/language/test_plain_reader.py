@@ -257,12 +257,12 @@ def test_chain_steps_read_at_once_are_the_grammar_s(steps_read):
 def test_fuzzed_chains_against_the_token_reader(steps_read):
     rng = random.Random(155)
     plain = 0
-    for text in DERIVED[3:] + [derive_dedekind(12345678901, 98765432109876)]:
-        for mutant in _mutants(text, rng, 150):
+    for text in (derive_dedekind(8 ** 20 + 1, 7 ** 30), derive_dedekind(12345678901, 98765432109876)):
+        for mutant in _mutants(text, rng, 200):
             if _same(mutant):
                 plain += 1
                 assert read_plain(mutant, "certificate") == _token_by_token(mutant), mutant
-    assert plain > 60 and steps_read[0] > 1000, (plain, steps_read[0])
+    assert plain > 60 and steps_read[0] > 1000, (plain, steps_read[0])     # mutants read line by line
 
 
 @pytest.mark.parametrize("limits", [Limits(nesting=2), Limits(nesting=3), Limits(literal_digits=19),

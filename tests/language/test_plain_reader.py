@@ -425,3 +425,33 @@ def test_long_line_and_deep_nesting():
     _same(deep)                      # too deep for recursion here: Lark reads it
     nested = "claim " + "-" * 190 + "1 = 1\n"
     _same(nested)
+
+
+_BLANK = st.sampled_from(["", " ", "\t", "  ", " ", "", "\f", "\r"])
+
+
+def _mostly(good, misses):
+    """Mostly one of `good` (the derived shape), sometimes a near miss."""
+    return st.sampled_from(good * 6 + misses)
+
+
+_STEP = st.tuples(_mostly(["", "-", "\u2212"], ["+", "--"]), st.from_regex(r"[0-9]{1,25}", fullmatch=True),
+                  _mostly(["", "/7", "/12345678901234567890"], ["/ 0", "/-2", "*3", "/"]),
+                  _mostly(["+", "-", "\u2212"], ["", "*", "+-"]),
+                  _mostly(["dedekind", "f'", "x1"], ["by", "claim", "lemma", "sum", "1"]),
+                  _mostly(["3, 7", "0,1", "12345678901234567890, 7"], ["-3, 7", "3", "", "3, 7, 9", "3 7"]),
+                  _mostly(["by"], ["bye", "By", "", "b y"]),
+                  _mostly(["reduce", "reciprocity, reduce", "a ,b,c", "r'"], ["claim x", "reduce,", "mod", "lemma f()"]),
+                  _BLANK, _BLANK, _mostly(["\n"], ["\r\n", " # c\n", "\n, reduce\n", "\n/ 2\n", "", "\n(1)\n"]))
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.lists(_STEP, min_size=1, max_size=4))
+def test_chain_steps_against_the_token_reader(steps):
+    """Generated steps of the derived shape and its neighbours: the one-line reader gives the token
+    reader's tree (with positions), and both Lark's; near a miss, the token reader decides."""
+    text = "chain c: dedekind(3, 7)\n"
+    for sign, p, q, op, name, args, by, rules, b1, b2, end in steps:
+        text += f"  ={b1}{sign}{p}{q}{b2}{op} {name}({args}){b1}{by} {b2}{rules}{end}"
+    if _same(text):
+        assert read_plain(text, "certificate") == _token_by_token(text), text

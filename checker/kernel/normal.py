@@ -232,6 +232,9 @@ class Normaliser:
         return total
 
     def _Product(self, node):
+        quotient = _literal_quotient(node.factors)
+        if quotient is not None:
+            return constant(quotient)
         acc = constant(_ONE_F)
         for divide, factor in node.factors:
             f = self.normal(factor)
@@ -311,6 +314,24 @@ class Normaliser:
         if len(x) > self.limits.terms:
             raise BudgetExceeded(f"the expression has {len(x)} terms, over the limit terms = "
                                  f"{self.limits.terms}").at(node)
+
+
+def _literal_quotient(factors):
+    """The value of `p/q` or `-p/q` with literals p and q != 0 (the constant of each line of a
+    derived chain), the number the general product gives, without its two products of normal
+    forms; None for any other product (a zero divisor included: the general path refuses it)."""
+    if len(factors) != 2 or factors[0][0] or not factors[1][0]:
+        return None
+    first, divisor = factors[0][1], factors[1][1]
+    negative = type(first) is ex.Neg
+    if negative:
+        first = first.operand
+    if type(first) is not ex.Num or type(divisor) is not ex.Num or not divisor.value:
+        return None
+    n, d = -first.value if negative else first.value, divisor.value
+    if max(n.bit_length(), d.bit_length()) > LONG_BITS:
+        return Ratio(n, d)
+    return Fraction(n, d)
 
 
 def _trivial_value(atom):

@@ -23,7 +23,7 @@ import re
 
 from . import expressions as ex
 from . import statements as st
-from ..foundation.numbers import text_int
+from ..foundation.numbers import gmp_mpz, text_int
 
 __all__ = ["PlainReader", "GiveUp", "SHAPE", "RELATIONS", "NumberCall"]
 
@@ -143,6 +143,7 @@ class PlainReader:
         self.number_call_pattern = self._number_call_pattern() if self.enabled else None
         self.claim_line, self.claim_argument = _claim_line_patterns(self) if self.enabled else (None, None)
         self.sum_term = _sum_term_pattern(self) if self.enabled else None
+        self.step_line = _step_line_pattern(self) if self.enabled else None
 
     def _number_call_pattern(self):
         """NAME(INT, ..., INT) on one line, blanks (spaces, tabs) around any token: `call` and
@@ -444,9 +445,10 @@ class PlainReader:
         first = self._pos()
         self._next()
         label, start = self._label_then_expr()
-        steps = []
+        steps, on_line = [], self.step_line is not None
         while self._is("EQUALS"):
-            steps.append(self._step())
+            step = self._step_on_line() if on_line and self.lex == "=" else None
+            steps.append(self._step() if step is None else step)
         if not steps:
             raise GiveUp()
         return st.Chain(label, start, tuple(steps), _span(first, steps[-1].pos))
@@ -463,6 +465,63 @@ class PlainReader:
             self._next()
             rules.append(self._rule())
         return st.Step(expr, tuple(rules), _span(first, rules[-1].pos))
+
+    def _step_on_line(self):
+        """The step `= [-]p[/q] +|- NAME(a, b) by RULE, ..., RULE` (the lines of a derived chain)
+        read by one regular expression from the current `=`, or None (nothing consumed) when the
+        line has another shape, is near a budget, or its rules go on after the line.
+
+        The pattern is made of the grammar's terminals with blanks between them; each token ends
+        where the lexer ends it (a number or a name is followed by a character that cannot
+        continue it), so it reads the tokens the lexer reads.  The step is taken only when the
+        token after it is not a comma (which would add a rule from the next line)."""
+        m = self.step_line.match(self.text, self.tstart)
+        if m is None:
+            return None
+        text, keywords, limits = self.text, self.keywords, self.limits
+        regs = m.regs
+        (_, _, (s0, _), (p0, p1), _, (q0, q1), (o0, o1), (n0, n1), _, (a0, a1), _, (b0, b1), (_, c1),
+         (y0, y1), (r0, r1)) = regs
+        name, rules = text[n0:n1], _RULE_NAMES.findall(text, r0, r1)
+        if name in keywords or text[y0:y1] != self.kw["by"] or any(r in keywords for r in rules) or \
+                max(p1 - p0, q1 - q0, a1 - a0, b1 - b0) > limits.literal_digits or \
+                max((s0 >= 0) + (q0 >= 0), 1) + 1 > limits.nesting:
+            return None
+        # the tokens after `=` (a group each, the rules' commas besides) and each run of blanks
+        # between them (one ignored token each, as the lexer counts): a gap between two groups
+        tokens, end = 2 * len(rules) - 1 + len(_BLANKS.findall(text, r0, r1)), regs[1][1]
+        for first, last in regs[2:14]:
+            if first >= 0:
+                tokens += 1 + (first > end)
+                end = last
+        tokens += r0 > end
+        if self.count + tokens > self.tokens:
+            return None
+        saved = (self.pos, self.count, self.kind, self.lex, self.roles, self.tline, self.tcol,
+                 self.tstart, self.line, self.line_start)
+        self.pos = m.end()
+        self.count += tokens
+        self._next()
+        if "COMMA" in self.roles:          # `, rule` on the next line: the token reader reads it
+            (self.pos, self.count, self.kind, self.lex, self.roles, self.tline, self.tcol,
+             self.tstart, self.line, self.line_start) = saved
+            return None
+        line, start = saved[5], saved[9] - 1
+        constant = _literal(text, s0, p0, p1, line, start)
+        if q0 >= 0:
+            divisor = _num(_integer(text[q0:q1]), line, q0 - start, q1 - start)
+            constant = _product(((False, constant), (True, divisor)), _at(line, constant.pos.column, q1 - start))
+        call = _call(name, (_num(_integer(text[a0:a1]), line, a0 - start, a1 - start),
+                            _num(_integer(text[b0:b1]), line, b0 - start, b1 - start)),
+                     _at(line, n0 - start, c1 - start))
+        total = _sum(((1, constant), (1 if text[o0:o1] == "+" else -1, call)),
+                     _at(line, constant.pos.column, c1 - start))
+        refs, at = [], r0
+        for rule in rules:
+            at = text.index(rule, at)
+            refs.append(_rule_ref(rule, _at(line, at - start, at + len(rule) - start)))
+            at += len(rule)
+        return _step(total, tuple(refs), _at(line, saved[6], refs[-1].pos.end_column))
 
     def _rule(self):
         if self._plain_name():
@@ -675,6 +734,31 @@ def _claim_line_patterns(reader):
     return line, re.compile(f"(?:({minus}){blank})?({number})")
 
 
+def _step_line_pattern(reader):
+    """The pattern of `_step_on_line`, made of the grammar's terminals; None when the grammar's
+    punctuation is not what it assumes (a group for each token: = [-] p [/ q] +|- name ( a , b ) by,
+    and one for the rules with their commas)."""
+    small, by_literal = reader.small, reader.by_literal
+    punctuation = {"EQUALS": "=", "LPAR": "(", "RPAR": ")", "COMMA": ","}
+    if any(by_literal.get(lit) != name for name, lit in punctuation.items()) or \
+            any(k not in small for k in ("NAME", "INT", "MINUS", "ADDOP", "MULOP")) or \
+            not small["MULOP"].fullmatch("/") or small["MINUS"].fullmatch("/") or \
+            small["ADDOP"].fullmatch("/") or not small["ADDOP"].fullmatch("+") or \
+            _RULE_NAMES.pattern != small["NAME"].pattern:
+        return None
+    name, number, minus, addop = (small[k].pattern for k in ("NAME", "INT", "MINUS", "ADDOP"))
+    blank = "[ \t]*"
+    line = re.compile(
+        f"(=){blank}(?:({minus}){blank})?({number})(?:{blank}(/){blank}({number}))?{blank}({addop}){blank}"
+        f"({name}){blank}(\\(){blank}({number}){blank}(,){blank}({number}){blank}(\\)){blank}"
+        f"({name})[ \\t]+({name}(?:{blank},{blank}{name})*)")
+    return line if line.groups == 14 else None
+
+
+_RULE_NAMES = re.compile(r"[A-Za-z_][A-Za-z_0-9]*'*")
+_BLANKS = re.compile("[ \t]+")
+
+
 def _sum_term_pattern(reader):
     """`+ n` or `- n` followed, after blanks, by `+` or `-` (so n is a whole term); None when
     the grammar's ADDOP could be something the pattern does not know."""
@@ -715,7 +799,17 @@ def _at(line: int, column: int, end_column: int) -> ex.Pos:
 
 
 def _integer(digits: str) -> int:
-    return int(digits) if len(digits) <= 4000 else text_int(digits)    # int() reads 4300 digits at most
+    """The number written by `digits` (ASCII digits only, as INT is): int() is quadratic in their
+    count and GMP is not."""
+    if len(digits) <= _SHORT_NUMBER:
+        return int(digits)
+    mpz = gmp_mpz()
+    if mpz is not None:
+        try:
+            return int(mpz(digits))
+        except ValueError:          # not for GMP (a grammar whose INT takes more than ASCII digits)
+            pass
+    return text_int(digits)
 
 
 def _literal(text: str, minus: int, first: int, end: int, line: int, start: int):
@@ -757,6 +851,27 @@ def _claim(label, lhs, relation: str, rhs, pos: ex.Pos) -> st.Claim:
     d = c.__dict__
     d["label"], d["lhs"], d["relation"], d["rhs"], d["pos"] = label, lhs, relation, rhs, pos
     return c
+
+
+def _sum(terms: tuple, pos: ex.Pos) -> ex.Sum:
+    n = _new(ex.Sum)
+    d = n.__dict__
+    d["terms"], d["pos"] = terms, pos
+    return n
+
+
+def _rule_ref(name: str, pos: ex.Pos) -> st.RuleRef:
+    r = _new(st.RuleRef)
+    d = r.__dict__
+    d["name"], d["label"], d["pos"], d["args"] = name, None, pos, ()
+    return r
+
+
+def _step(expr, rules: tuple, pos: ex.Pos) -> st.Step:
+    s = _new(st.Step)
+    d = s.__dict__
+    d["expr"], d["rules"], d["pos"] = expr, rules, pos
+    return s
 
 
 def _span(first: ex.Pos, last: ex.Pos) -> ex.Pos:

@@ -175,3 +175,57 @@ def test_the_pure_python_path_checks_and_rejects_alike(monkeypatch):
     for what, mutated, offset in _mutants(lines[index], lines[index - 1])[:8]:
         report = check_text("\n".join(lines[:index] + [mutated] + lines[index + 1:]))
         assert not report.ok and report.failure.line == index + 1 + offset, what
+
+
+def _reader_mutants(line, call, a, b):
+    """(what, replacement lines, accepted?): changes that a reader reading a step in one piece might
+    read otherwise than the grammar does."""
+    head = line[:line.index(" by ")]
+    out = [("misspelt rule", [line.replace("reciprocity,", "reciprocty,")], False),
+           ("rule: claim without a label", [line.replace(", reduce", ", claim")], False),
+           ("rule: a keyword", [line.replace(", reduce", ", mod")], False),
+           ("missing bracket", [line.replace(call, call[:-1])], False),
+           ("doubled bracket", [line.replace(call, call + ")")], False),
+           ("no 'by'", [line.replace(" by ", "  ")], False),
+           ("'bye'", [line.replace(" by ", " bye ")], False),
+           ("'by' glued to the rule", [line.replace(" by ", " byreciprocity")], False),
+           ("'*' for '/'", [line.replace("/", "*", 1)], False),
+           ("a divisor on the next line", [line, "  / 2"], False),
+           ("a term on the next line", [line, "  + 1"], False),
+           ("a third argument", [line.replace(call, f"dedekind({a}, {b}, 1)")], False),
+           ("a negative argument", [line.replace(call, f"dedekind(-{a}, {b})")], False),
+           ("a wrong rule on the next line", [line + ",", "  value"], False),
+           ("'=' twice", [line.replace("  = ", "  == ", 1)], False),
+           ("rules split over two lines", [line.replace(", reduce", ","), "    reduce"], True),
+           ("the comma on the next line", [line.replace(", reduce", ""), "    , reduce"], True),
+           ("a comment after the rules", [line + "  # a note"], True),
+           ("unicode minus", [line.replace(" - dedekind", " \u2212 dedekind")], True),
+           ("tabs and no blanks", [head.replace(" ", "\t").replace("\t=\t", " =") + "\tby reciprocity,reduce"], True),
+           ("CR LF", [line + "\r"], True)]
+    return out
+
+
+def test_mutants_a_line_reader_could_misread_get_the_grammar_s_verdict(monkeypatch):
+    """Each mutant of a step of the 300-digit chain: the same verdict (failing line, column and
+    message) with and without the plain reader's one-line steps, and rejected where it must be."""
+    from checker.language.plain_reader import PlainReader
+    lines, steps = _chain_300()
+    index = steps[len(steps) // 2]
+    call, a, b = _pair(lines[index])
+    assert " - dedekind" in lines[index] or " + dedekind" in lines[index]
+
+    def verdict(text):
+        report = check_text(text)
+        f = report.failure
+        return report.ok, None if f is None else (f.line, f.column, f.message)
+    token_reader = {}
+    for what, mutated, accepted in _reader_mutants(lines[index], call, a, b):
+        token_reader[what] = mutated, accepted
+    fast = {what: verdict("\n".join(lines[:index] + m + lines[index + 1:])) for what, (m, _) in token_reader.items()}
+    monkeypatch.setattr(PlainReader, "_step_on_line", lambda self: None)
+    for what, (mutated, accepted) in token_reader.items():
+        slow = verdict("\n".join(lines[:index] + mutated + lines[index + 1:]))
+        assert fast[what] == slow, what
+        assert slow[0] is accepted, (what, slow)
+        if not accepted:
+            assert slow[1][0] in (index + 1, index + 2), (what, slow)

@@ -150,3 +150,34 @@ def test_a_long_reciprocity_constant_meets_a_lemma_parameter():
     assert report.ok, report.failures
     wrong = text.replace(f"    = n*{right}", f"    = n*{right + Fraction(1, k)}")
     assert not check_text(wrong, seed=1).ok
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.sampled_from(["", "-", "- ", "\u2212"]), st.one_of(st.integers(0, 10**6), st.integers(0, 10**700)),
+       st.one_of(st.integers(0, 10**6), st.integers(0, 10**700)), st.sampled_from(["", " + dedekind(3, 7)", " - 5/3"]))
+def test_a_literal_quotient_is_the_general_product_s(sign, p, q, rest):
+    """p/q and -p/q of literals (each derived line's constant) by the short path: the normal form
+    of the general product of normal forms, and its refusal of a zero divisor with its position."""
+    from checker.foundation.errors import CertificateError
+    from checker.kernel import normal
+    from checker.kernel.evaluation import Evaluator
+    from checker.language.parsing import parse_expression
+    tree = parse_expression(f"{sign}{p}/{q}{rest}")
+
+    def normal_form(short):
+        saved = normal._literal_quotient
+        if not short:
+            normal._literal_quotient = lambda factors: None
+        try:
+            return normal.Normaliser(Evaluator()).normal(tree)
+        except CertificateError as e:
+            return (e.message, e.line, e.column)
+        finally:
+            normal._literal_quotient = saved
+    short, general = normal_form(True), normal_form(False)
+    assert short == general
+    if q:
+        expected = Fraction(-p if sign else p, q) - (Fraction(5, 3) if rest == " - 5/3" else 0)
+        assert isinstance(short, dict) and short.get(frozenset(), 0) == expected   # outside: Fraction
+    else:
+        assert isinstance(short, tuple) and "division by zero" in short[0]

@@ -8,6 +8,7 @@ parsers of one grammar); when the plain reader gives up, Lark reads the text.
 from __future__ import annotations
 
 import random
+import re
 from pathlib import Path
 
 import pytest
@@ -34,7 +35,9 @@ def _text(path):
 
 
 CORPUS = [t for t in (_text(p) for p in BUNDLED + BROKEN) if t is not None]
-CORPUS += [derive_dedekind(h, k) for h, k in ((5, 17), (12345678901, 98765432109876), (3, 10**30 + 7))]
+SMALL_DERIVED = [derive_dedekind(h, k) for h, k in ((5, 17), (12345678901, 98765432109876), (3, 10**30 + 7))]
+CORPUS += SMALL_DERIVED
+DERIVED = [derive_dedekind(h, k) for h, k in ((1, 2), (2, 1), (6, 4), (8 ** 90 + 1, 7 ** 120), (3 ** 700, 2 ** 1500 + 1))]
 CORPUS += ["", "# only a comment\n", "claim 1 = 1", "claim a: 2 <= 3\nclaim b: 3 \u2265 2\nclaim c: 1 \u2260 2",
            "let x = -(2)^-3 \u00b7 4 \u00d7 5 \u2212 +6\nclaim x == 3 mod 7\n",
            "chain c: dedekind(3, 7)\n  = dedekind(3, 7) by reduce, claim a\n  = dedekind(3, 7) by negate\n"]
@@ -70,9 +73,42 @@ def _claims_text(rng, count):
     return "".join(line if rng.random() < 0.85 else rng.choice(others) for line in _claim_lines(rng, count))
 
 
-CORPUS += [_claims_text(random.Random(seed), 12) for seed in range(4)]
-CORPUS += ["".join(f"claim c{i}: dedekind({3 * i + 1}, {10 ** 19 + 7 * i}) = {i - 5}/{i + 12}\n" for i in range(12)),
-           "claim 1 + 2 - 3 + 40 - 5 = 35\nlet t = 2 + 3 * 4 - 1 + (5 - 6) - 7 + 8\nclaim t = 10 + 1 \u2212 2 - 3\n"]
+CLAIM_TEXTS = [_claims_text(random.Random(seed), 12) for seed in range(4)]
+
+
+def _chain_text(rng, count):
+    """A chain whose steps have the shape of a derived chain's (read a line at a time), and near
+    misses: keywords as names or rules, unicode minus signs, blanks, other line ends, comments,
+    a missing or doubled bracket, and rules or terms going on on the next line."""
+    blank = lambda: rng.choice(["", " ", " ", "    ", "\t"])                        # noqa: E731
+
+    def pick(good, misses):
+        return rng.choice(good) if rng.random() < 0.85 else rng.choice(misses)
+    lines = ["chain " + rng.choice(["d: ", "", "by: "]) + "dedekind(3, 7)"]
+    for _ in range(count):
+        sign = rng.choice(["", "", "-", "\u2212", "- "])
+        p = rng.choice(["0", "5", "12345678901234567890", "9" * 40])
+        q = pick(["", "/" + blank() + rng.choice(["7", "12", "98765432109876543210"])], ["*3", "\u00b7 2", "/-3", "/ /2"])
+        op = pick(["+", "-", "\u2212"], ["+ -", "*", "++"])
+        name = pick(["dedekind", "f'", "g_2"], ["total", "sum", "by", "claim", "3"])
+        args = pick(["3, 7", "12345678901234567890,98765432109876543210", " 0 , 1 ", "0\t,1"],
+                    ["-3, 7", "3", "3, 7, 9", "(3), 7", "3, 7)", "3 7", ""])
+        rules = pick(["reciprocity, reduce", "reduce", "a,b ,c", "r'", "x, y'"],
+                     ["reduce,", "claim x", "reciprocity, claim x", "lemma f(1)", "by", "mod", "reduce reduce"])
+        by = pick(["by", "\tby", "by  "], ["bye", "by\u00e9", "byreduce", "by\n"])
+        line = (f"  ={blank()}{sign}{p}{blank()}{q}{blank()}{op}{blank()}{name}{blank()}({args}){blank()}"
+                f"{by} {blank()}{rules}")
+        if rng.random() < 0.3:
+            line += rng.choice([" # note", "\r", " ", "\n, reduce", "\n,reduce", "\n(1)", "\n/ 2", "\n+ 1",
+                                "\n\n", "\f", "\n# c", ", ", "\n  = 1 by value", "'", "\u00e9"])
+        lines.append(line)
+    ends = ["\n", "\n", "\r\n", "", "\nclaim 1 = 1\n", "\n  = 0 by value\n", "\nlet x = 1\n"]
+    return "\n".join(lines) + rng.choice(ends)
+
+
+CLAIM_TEXTS += ["".join(f"claim c{i}: dedekind({3 * i + 1}, {10 ** 19 + 7 * i}) = {i - 5}/{i + 12}\n" for i in range(12)),
+                "claim 1 + 2 - 3 + 40 - 5 = 35\nlet t = 2 + 3 * 4 - 1 + (5 - 6) - 7 + 8\nclaim t = 10 + 1 \u2212 2 - 3\n"]
+CORPUS += CLAIM_TEXTS + [_chain_text(random.Random(seed), 8) for seed in range(4)]
 
 # pieces the fuzzer inserts: every kind of terminal, keywords in odd places, unicode forms
 PIECES = ["claim", "chain", "let", "title", "source", "by", "mod", "sum", "lemma", "use", "then", "end",
@@ -124,10 +160,10 @@ def test_corpus(text):
 
 
 def _token_by_token(text, limits=DEFAULT_LIMITS):
-    """The plain reader without its line-at-a-time claims and literal sum terms."""
+    """The plain reader without its line-at-a-time claims, chain steps and literal sum terms."""
     reader = object.__new__(PlainReader)
     reader.__dict__.update(parsing._plain_reader().__dict__)
-    reader.claim_line = reader.sum_term = None
+    reader.claim_line = reader.sum_term = reader.step_line = None
     try:
         return reader.certificate(text, limits)
     except GiveUp:
@@ -173,6 +209,90 @@ def test_a_long_run_of_claims_is_read_a_line_at_a_time(lines_read):
     assert _same(crlf) and read_plain(crlf, "certificate") == _token_by_token(crlf)
 
 
+@pytest.fixture
+def steps_read(monkeypatch):
+    """Counts the chain steps the plain reader reads a line at a time."""
+    count = [0]
+    made = PlainReader._step_on_line
+
+    def counted(self):
+        found = made(self)
+        count[0] += found is not None
+        return found
+    monkeypatch.setattr(PlainReader, "_step_on_line", counted)
+    return count
+
+
+def test_derived_chains_are_read_a_line_at_a_time(steps_read):
+    """Derived chains of several sizes (up to 450 digits, CRLF too): Lark's trees and positions,
+    the token reader's, and every step `= c +|- dedekind(a, b)` read by the line reader (those
+    with c = 0 are written without it, and the token reader reads them)."""
+    for text in DERIVED:
+        for variant in (text, text.replace("\n", "\r\n"), text.replace("    by", "\tby").replace(", ", ",")):
+            before = steps_read[0]
+            assert _same(variant)
+            shaped = sum(1 for line in variant.splitlines() if re.search(r"= -?\d+(/\d+)? [-+] dedekind", line))
+            assert steps_read[0] - before == shaped
+            assert read_plain(variant, "certificate") == _token_by_token(variant)
+    assert steps_read[0] > 3000
+
+
+def test_chain_steps_read_at_once_are_the_grammar_s(steps_read):
+    """Steps of the derived shape and near misses: where the plain reader reads the text, the tree
+    and positions are Lark's and the token reader's; where a step read a line at a time is in a
+    text for Lark, the plain reader gives up on the whole text."""
+    rng = random.Random(154)
+    read = 0
+    for _ in range(400):
+        text = _chain_text(rng, rng.randint(1, 4))
+        before = steps_read[0]
+        if _same(text):
+            read += 1
+            assert _token_by_token(text) == read_plain(text, "certificate"), text
+        elif steps_read[0] > before:
+            assert read_plain(text, "certificate") is None
+    assert read > 25 and steps_read[0] > 60, (read, steps_read[0])
+
+
+def test_fuzzed_chains_against_the_token_reader(steps_read):
+    rng = random.Random(155)
+    plain = 0
+    for text in (derive_dedekind(8 ** 20 + 1, 7 ** 30), derive_dedekind(12345678901, 98765432109876)):
+        for mutant in _mutants(text, rng, 200):
+            if _same(mutant):
+                plain += 1
+                assert read_plain(mutant, "certificate") == _token_by_token(mutant), mutant
+    assert plain > 60 and steps_read[0] > 1000, (plain, steps_read[0])     # mutants read line by line
+
+
+@pytest.mark.parametrize("limits", [Limits(nesting=2), Limits(nesting=3), Limits(literal_digits=19),
+                                    Limits(literal_digits=20), Limits(tokens=150), Limits(tokens=151)],
+                         ids=["nesting2", "nesting3", "digits19", "digits20", "tokens150", "tokens151"])
+def test_chain_step_budgets_are_lark_s(limits):
+    text = ("chain c: dedekind(3, 7)\n  = -1/12345678901234567890 + dedekind(1, 3)    by reciprocity, reduce\n"
+            "  = 5 - f(12345678901234567890, 7) by a,b , c\n  = 2/3 + g(0, 1) by r\n  = 1 by value\n")
+    _lark_s_verdict(text, limits)
+
+
+def test_chain_steps_count_tokens_as_the_token_reader_does():
+    text = derive_dedekind(12345678901, 98765432109876).replace("    by", " \t by").replace(", reduce", " ,reduce")
+
+    def plain(text, limits):
+        return read_plain(text, "certificate", limits)
+    fewest = _fewest_tokens(plain, text)
+    assert fewest == _fewest_tokens(_token_by_token, text)
+    # the plain reader counts ignored tokens that Lark does not: it reads no text that Lark refuses
+    lark = _fewest_tokens(lambda t, limits: _lark_or_none(t, limits), text)
+    assert lark <= fewest
+
+
+def _lark_or_none(text, limits):
+    try:
+        return parse_with_lark(text, "certificate", limits)
+    except CertificateError:
+        return None
+
+
 def test_literal_sum_terms_are_the_grammar_s():
     rng = random.Random(152)
     for _ in range(200):
@@ -186,7 +306,7 @@ def test_literal_sum_terms_are_the_grammar_s():
 def test_plain_certificates_are_read_without_lark():
     read = [p.name for p in BUNDLED if _same(p.read_text(encoding="utf-8"))]
     assert {"closed-forms.qcert", "reciprocity-instances.qcert", "three-term-law.qcert"} <= set(read)
-    assert all(_same(t) for t in CORPUS[-9:-6])          # the derived chains
+    assert all(_same(t) for t in SMALL_DERIVED + DERIVED)
 
 
 def test_fuzzed_corpus():
@@ -201,7 +321,7 @@ def test_fuzzed_corpus():
 def test_fuzzed_claim_lines_against_the_token_reader():
     rng = random.Random(153)
     plain = 0
-    seeds = [t for t in CORPUS[-6:] if read_plain(t, "certificate") is not None]
+    seeds = [t for t in CLAIM_TEXTS if read_plain(t, "certificate") is not None]
     assert len(seeds) >= 2
     for text in seeds:
         for mutant in _mutants(text, rng, 300):
@@ -305,3 +425,33 @@ def test_long_line_and_deep_nesting():
     _same(deep)                      # too deep for recursion here: Lark reads it
     nested = "claim " + "-" * 190 + "1 = 1\n"
     _same(nested)
+
+
+_BLANK = st.sampled_from(["", " ", "\t", "  ", " ", "", "\f", "\r"])
+
+
+def _mostly(good, misses):
+    """Mostly one of `good` (the derived shape), sometimes a near miss."""
+    return st.sampled_from(good * 6 + misses)
+
+
+_STEP = st.tuples(_mostly(["", "-", "\u2212"], ["+", "--"]), st.from_regex(r"[0-9]{1,25}", fullmatch=True),
+                  _mostly(["", "/7", "/12345678901234567890"], ["/ 0", "/-2", "*3", "/"]),
+                  _mostly(["+", "-", "\u2212"], ["", "*", "+-"]),
+                  _mostly(["dedekind", "f'", "x1"], ["by", "claim", "lemma", "sum", "1"]),
+                  _mostly(["3, 7", "0,1", "12345678901234567890, 7"], ["-3, 7", "3", "", "3, 7, 9", "3 7"]),
+                  _mostly(["by"], ["bye", "By", "", "b y"]),
+                  _mostly(["reduce", "reciprocity, reduce", "a ,b,c", "r'"], ["claim x", "reduce,", "mod", "lemma f()"]),
+                  _BLANK, _BLANK, _mostly(["\n"], ["\r\n", " # c\n", "\n, reduce\n", "\n/ 2\n", "", "\n(1)\n"]))
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.lists(_STEP, min_size=1, max_size=4))
+def test_chain_steps_against_the_token_reader(steps):
+    """Generated steps of the derived shape and its neighbours: the one-line reader gives the token
+    reader's tree (with positions), and both Lark's; near a miss, the token reader decides."""
+    text = "chain c: dedekind(3, 7)\n"
+    for sign, p, q, op, name, args, by, rules, b1, b2, end in steps:
+        text += f"  ={b1}{sign}{p}{q}{b2}{op} {name}({args}){b1}{by} {b2}{rules}{end}"
+    if _same(text):
+        assert read_plain(text, "certificate") == _token_by_token(text), text

@@ -16,7 +16,7 @@ from ..foundation.limits import DEFAULT_LIMITS, Limits
 from ..replay.library import read_certificate_text
 from ..replay import checking
 from ..replay.report import Failure, Report
-from .tables import check_table, is_table
+from .table_files import is_table
 
 __all__ = ["check_file", "check_text", "require_something", "EXIT_EMPTY"]
 
@@ -42,6 +42,7 @@ def check_file(path, limits: Limits = DEFAULT_LIMITS, keep_going: bool = False, 
     `jobs` is for tables: worker processes (None: by the table's size, see tables.default_jobs)."""
     path = Path(path)
     if is_table(path):
+        from .tables import check_table     # imported on first use: its patterns cost start-up
         report = check_table(path, limits, jobs)
     else:
         try:

@@ -18,7 +18,7 @@ import pytest
 from ..language import statements as st
 from ..replay.report import render_failure
 from .files import check_file
-from .tables import TABLE_SUFFIXES
+from .table_files import TABLE_SUFFIXES
 
 _CHECKED = (st.Claim, st.Congruence, st.Chain, st.Identity, st.Witness, st.Lemma, st.Use)
 

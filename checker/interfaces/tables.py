@@ -52,7 +52,7 @@ from ..replay.report import Failure, Report
 __all__ = ["TABLE_SUFFIXES", "is_table", "check_table", "default_jobs", "table_rows", "check_rows",
            "parameter_names"]
 
-TABLE_SUFFIXES = (".csv", ".jsonl")
+from .table_files import TABLE_SUFFIXES, is_table
 
 _INT = re.compile(r"[ \t]*(-?[0-9]+)[ \t]*", re.ASCII)
 _NUMBER = re.compile(r"[ \t]*(-?[0-9]+)(?:[ \t]*/[ \t]*([0-9]+))?[ \t]*", re.ASCII)
@@ -65,10 +65,6 @@ _CALL = re.compile(r"\s*([A-Za-z_][A-Za-z_0-9]*)\s*\((.*)\)\s*$", re.ASCII | re.
 # anything outside printable ASCII and tab gets the slow, careful look
 _UNUSUAL = re.compile(r"[^\x20-\x7e\t]")
 _LINE_BREAKS = "\n\r\x0b\x0c\x1c\x1d\x1e\x85\u2028\u2029"   # what str.splitlines splits on
-
-
-def is_table(path) -> bool:
-    return Path(path).suffix.lower() in TABLE_SUFFIXES
 
 
 class _RowError(Exception):

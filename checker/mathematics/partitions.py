@@ -258,12 +258,14 @@ def _fourier_plan(n, parts):
 def _cones_plan(n, parts):
     if len(parts) <= 3:
         return None                                   # Popoviciu's formula is cheaper still
-    from .ehrhart import CONE_STEP, restricted_partitions, restricted_partitions_cost
+    from .ehrhart import restricted_partitions, restricted_partitions_cost
     # the decomposition of the simplex's cones (nothing once cached), then one pass over its
     # unimodular cones per value: measured at a tenth to a twentieth of the decomposition
     decomposition, per_value = restricted_partitions_cost(parts, per_value=True)
     steps = decomposition + per_value
-    return Plan("cones", n, parts, steps, steps // CONE_STEP,
+    # charged as about 30 steps a term (the waves: 20), so the default budget admits a few seconds
+    # of estimated cone work, where the estimate errs high (it follows the worst cases measured)
+    return Plan("cones", n, parts, steps, steps // 30,
                 f"for {len(parts)} parts up to {_short(max(parts))} by Barvinok's signed cones of the "
                 "simplex {x >= 0 : a.x = n}", lambda: restricted_partitions(n, parts))
 

@@ -84,6 +84,10 @@ HOSTILE = [
     ("giant partition pair", "claim partitions(10^12, [10^9, 10^9 + 1]) = 1\n", None),
     ("giant partition problem", "claim partitions(10^30, [10^9, 10^9 + 1, 10^9 + 3, 10^9 + 7, 10^9 + 9, 10^9 + 13]) = 0\n",
      "limit"),
+    # five parts at random near 10^9: a decomposition of some 20 s, which its estimate must refuse
+    # up front (found by the second review, when it was charged a tenth of its cost)
+    ("costly cone decomposition",
+     "claim partitions(10^30, [760802823, 806340495, 811423016, 1066917336, 5554647846]) = 5\n", "limit"),
     # four generators need the residue table of min(A) entries; two or three are O(log)
     ("giant Frobenius table", "claim frobenius([10^12 + 1, 10^12, 10^12 + 3, 10^12 + 7]) = 0\n", "limit"),
     ("giant Frobenius pair", "claim frobenius([10^12 + 1, 10^12]) = 10^24 - 10^12 - 1\n", None),

@@ -184,19 +184,26 @@ def lines_read(monkeypatch):
     return count
 
 
-def test_claim_lines_read_at_once_are_the_grammar_s(lines_read):
-    """Claims read a line at a time: the trees and positions of Lark and of the token reader."""
-    rng = random.Random(151)
+def _compare_line_reader(make_text, count, used):
+    """Texts from make_text(): where Lark and the plain reader agree (`_same`), the token reader gives
+    the same tree; where a line reader (counted in `used`) read a line of a text that went to Lark,
+    the plain reader gives up on the whole text, so Lark alone decides. Returns the texts read."""
     read = 0
-    for _ in range(300):
-        text = _claims_text(rng, rng.randint(1, 4))
-        before = lines_read[0]
+    for _ in range(count):
+        text = make_text()
+        before = used[0]
         if _same(text):
             read += 1
             assert _token_by_token(text) == read_plain(text, "certificate"), text
-        elif lines_read[0] > before:
-            # the line reader read a claim, another statement sent the text to Lark: Lark alone decides
+        elif used[0] > before:
             assert read_plain(text, "certificate") is None
+    return read
+
+
+def test_claim_lines_read_at_once_are_the_grammar_s(lines_read):
+    """Claims read a line at a time: the trees and positions of Lark and of the token reader."""
+    rng = random.Random(151)
+    read = _compare_line_reader(lambda: _claims_text(rng, rng.randint(1, 4)), 300, lines_read)
     assert read > 40 and lines_read[0] > 150, (read, lines_read[0])  # the shapes are reached, and read by the line reader
 
 
@@ -242,15 +249,7 @@ def test_chain_steps_read_at_once_are_the_grammar_s(steps_read):
     and positions are Lark's and the token reader's; where a step read a line at a time is in a
     text for Lark, the plain reader gives up on the whole text."""
     rng = random.Random(154)
-    read = 0
-    for _ in range(400):
-        text = _chain_text(rng, rng.randint(1, 4))
-        before = steps_read[0]
-        if _same(text):
-            read += 1
-            assert _token_by_token(text) == read_plain(text, "certificate"), text
-        elif steps_read[0] > before:
-            assert read_plain(text, "certificate") is None
+    read = _compare_line_reader(lambda: _chain_text(rng, rng.randint(1, 4)), 400, steps_read)
     assert read > 25 and steps_read[0] > 60, (read, steps_read[0])
 
 

@@ -270,14 +270,19 @@ def _adversarial_pairs():
     return pairs
 
 
-@pytest.mark.parametrize("gmp", range(2))
-def test_batches_on_adversarial_pairs_against_python_flint(monkeypatch, gmp):
-    # python-flint's fmpq.dedekind_sum; Fibonacci pairs, k = 2^n +- 1, huge quotients
+@pytest.fixture(params=["pure Python", "gmpy2"])
+def gmpy2_mode(request, monkeypatch):
+    """Run a test once with the pure-Python kernel and once with gmpy2's inverse (if installed)."""
     import checker.mathematics.dedekind as module
     modes = _both_gmpy2_modes()
-    if gmp >= len(modes):
+    index = ["pure Python", "gmpy2"].index(request.param)
+    if index >= len(modes):
         pytest.skip("gmpy2 is not installed")
-    monkeypatch.setattr(module, "_gmp_invert", modes[gmp])
+    monkeypatch.setattr(module, "_gmp_invert", modes[index])
+
+
+def test_batches_on_adversarial_pairs_against_python_flint(gmpy2_mode):
+    # python-flint's fmpq.dedekind_sum; Fibonacci pairs, k = 2^n +- 1, huge quotients
     for h, k in _adversarial_pairs():
         exact(dedekind(h, k), flint_fraction(flint.fmpq.dedekind_sum(h, k)))
 
@@ -447,15 +452,9 @@ def test_euclid_against_one_quotient_at_a_time(a, b, g, want_inverse, batch):
         assert got[3] % r0 == u and got[3] * r1 % r0 == gcd_ % r0
 
 
-@pytest.mark.parametrize("gmp", range(2))
-def test_common_factors_of_every_size_against_python_flint(monkeypatch, gmp):
+def test_common_factors_of_every_size_against_python_flint(gmpy2_mode):
     # python-flint; the gcd comes out of the Euclid run (short, long, h dividing k, reached in
     # a batch's exact step), and the value is that of the reduced pair
-    import checker.mathematics.dedekind as module
-    modes = _both_gmpy2_modes()
-    if gmp >= len(modes):
-        pytest.skip("gmpy2 is not installed")
-    monkeypatch.setattr(module, "_gmp_invert", modes[gmp])
     rng = random.Random(41)
     for g_bits, digits in ((1, 5), (40, 20), (200, 100), (700, 30), (1200, 400), (3, 1000)):
         for _ in range(6):

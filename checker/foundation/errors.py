@@ -114,6 +114,11 @@ class CheckerBug(CertificateError):
     kind = "checker bug"
     exit_code = 3
 
+    @classmethod
+    def found(cls, what: str) -> "CheckerBug":
+        """The error for an internal check that failed, worded for the person who meets it."""
+        return cls(f"{what}: this is a bug in quasicert, please report it")
+
 
 class UsageError(CertificateError):
     """The command line itself was misused."""

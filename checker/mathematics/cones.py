@@ -59,6 +59,7 @@ from fractions import Fraction
 from math import comb, factorial, gcd, isqrt
 from typing import Callable, Optional
 
+from ..foundation.errors import CheckerBug
 from ..foundation.limits import check_time
 from .bernoulli import bernoulli
 from .integer_lattices import lll_reduce
@@ -110,7 +111,7 @@ def _inverse(rows):
     for i in range(n):
         for j in range(n):
             if sum(rows[i][k] * adj[k][j] for k in range(n)) != (det if i == j else 0):
-                raise AssertionError("the adjugate of an integer matrix is wrong")
+                raise CheckerBug.found("the adjugate of an integer matrix is wrong")
     return det, adj
 
 
@@ -127,10 +128,10 @@ def triangulate(gens, n: int, spend: Spend = None, _normals=()) -> list[tuple]:
     k = n - len(_normals)
     if len(gens) == k:
         if rank(gens, n) != k:
-            raise AssertionError("the generators of a cone do not span it")
+            raise CheckerBug.found("the generators of a cone do not span it")
         return [tuple(gens)]
     if len(gens) < k:
-        raise AssertionError("a cone has fewer generators than its dimension")
+        raise CheckerBug.found("a cone has fewer generators than its dimension")
     check_time()
     g0 = gens[0]
     rows = list(gens) + [r for s in _normals for r in (s, tuple(-x for x in s))]
@@ -161,13 +162,13 @@ def _short_vector(gens, det, adj):
         if best is None or key < best[0]:
             best = (key, red)
     if best is None:
-        raise AssertionError("a cone of index > 1 has no fractional lattice vector")
+        raise CheckerBug.found("a cone of index > 1 has no fractional lattice vector")
     red = best[1]
     if not any(x > 0 for x in red):
         red = [-x for x in red]
     w = [sum(red[i] * gens[i][k] for i in range(len(gens))) for k in range(len(gens))]
     if any(x % n for x in w):
-        raise AssertionError("the short vector is not a lattice vector")
+        raise CheckerBug.found("the short vector is not a lattice vector")
     w = _primitive(tuple(x // n for x in w))
     return w, red
 
@@ -184,7 +185,7 @@ def unimodular_decomposition(gens, spend: Spend = None, sign: int = 1):
         eps, g = stack.pop()
         det, adj = _inverse(g)
         if det == 0:
-            raise AssertionError("a simplicial cone with dependent generators")
+            raise CheckerBug.found("a simplicial cone with dependent generators")
         if spend:
             spend(len(g) ** 2)
         if abs(det) == 1:
@@ -201,13 +202,13 @@ def polar_unimodular(gens):
     """Generators w_j of the polar {x : u_i . x <= 0} of a unimodular cone(u): u_i . w_j = -delta_ij."""
     det, adj = _inverse(gens)
     if abs(det) != 1:
-        raise AssertionError("the polar of a cone that is not unimodular")
+        raise CheckerBug.found("the polar of a cone that is not unimodular")
     e = len(gens)
     w = [tuple(-det * adj[k][j] for k in range(e)) for j in range(e)]     # -(column j of G^-1)
     for i in range(e):
         for j in range(e):
             if _dot(gens[i], w[j]) != -(i == j):
-                raise AssertionError("the polar generators are wrong")
+                raise CheckerBug.found("the polar generators are wrong")
     return w
 
 
@@ -297,7 +298,7 @@ class ConeSum:
         for v in vertices:
             tight = [tuple(a) for a, c in rows if _dot(a, v) == c]
             if rank(tight, e) != e:
-                raise AssertionError("a vertex whose tight rows do not have full rank")
+                raise CheckerBug.found("a vertex whose tight rows do not have full rank")
             for simplex in triangulate(tight, e, spend):
                 for eps, u in unimodular_decomposition(simplex, spend):
                     cones.append((eps, v, u, polar_unimodular(u)))
@@ -308,7 +309,7 @@ class ConeSum:
             spend(2 * len(cones) * e ** 2)
         made = cls(e, [(first, _terms(cones, first, e)), (second, _terms(cones, second, e))], len(cones))
         if made.count(0) != 1:            # 0 Q = {0}: a cheap check of the whole decomposition
-            raise AssertionError("the cone sum does not count the one point of 0 Q")
+            raise CheckerBug.found("the cone sum does not count the one point of 0 Q")
         return made
 
     def __len__(self):
@@ -338,5 +339,5 @@ class ConeSum:
             spend(2 * self.size * self.dimension)
         values = [self._value(terms, t) for _, terms in self.sums]
         if values[0] != values[1] or values[0].denominator != 1:
-            raise AssertionError(f"the cone sum at t = {t} is not one integer: {values}")
+            raise CheckerBug.found(f"the cone sum at t = {t} is not one integer: {values}")
         return int(values[0])

@@ -49,6 +49,7 @@ from fractions import Fraction
 from math import comb, floor as _floor, gcd
 from typing import Callable, Optional
 
+from ..foundation.errors import CheckerBug
 from ..foundation.limits import DEFAULT_LIMITS, Limits
 from .polygons import polygon_count
 from .integer_lattices import hermite_columns, lll_reduce
@@ -141,7 +142,7 @@ def frame(poly: Polyhedron) -> Frame:
         diff = [x - s for x, s in zip(v, shift)]
         y = tuple(_solve_square(gram, [_dot(b, diff) for b in basis])) if e else ()
         if any(sum((yj * b[i] for yj, b in zip(y, basis)), Fraction(0)) != diff[i] for i in range(d)):
-            raise AssertionError("a vertex is not on the computed affine hull")
+            raise CheckerBug.found("a vertex is not on the computed affine hull")
         ys.append(y)
     low = tuple(min(y[j] for y in ys) for j in range(e))
     high = tuple(max(y[j] for y in ys) for j in range(e))

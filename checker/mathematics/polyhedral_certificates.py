@@ -66,7 +66,7 @@ def _dot(u, v):
 
 
 def _refuse(message: str):
-    raise CheckerBug(f"{message}: this is a bug in quasicert, please report it")
+    raise CheckerBug.found(message)
 
 
 def _text(v) -> str:

@@ -134,7 +134,8 @@ _QP_COSTS: dict = {}     # values only, keyed by the sorted parts: it cannot go 
 # one entry of the table); `terms` is what the budget `terms` is charged: the length of the
 # method's enumeration.  A polytope engine is one of them: the lattice points of the simplex
 # {x >= 0 : a.x = n} by Barvinok's signed cones (`ehrhart.restricted_partitions`), which costs
-# log-sized work in n and the parts for a fixed number of parts.
+# log-sized work in n and the parts for a fixed number of parts; its estimate analyses the
+# simplex, so it is asked only when every other method would cost more than _CONES_WORTH.
 
 class Plan:
     """One way to compute p_A(n): the method's name, its estimates, and how to run it."""
@@ -160,7 +161,14 @@ def plans(n: int, parts) -> list[Plan]:
     if n is None:
         return [Plan("zero", 0, (), 1, 0, "p_A(n) = 0", lambda: 0)]
     found = [p for p in (make(n, parts) for make in _METHODS) if p is not None]
+    if min((p.steps for p in found), default=_CONES_WORTH) >= _CONES_WORTH:
+        cones = _cones_plan(n, parts)       # its estimate analyses the simplex: only when it may pay
+        if cones is not None:
+            found.append(cones)
     return found
+
+
+_CONES_WORTH = 10**6      # steps (about 0.1 s); below it another method is as quick as the cones' estimate
 
 
 def partitions_cost(n: int, parts) -> tuple[int, str]:
@@ -270,7 +278,7 @@ def _cones_plan(n, parts):
                 "simplex {x >= 0 : a.x = n}", lambda: restricted_partitions(n, parts))
 
 
-_METHODS = (_few_plan, _table_plan, _waves_plan, _recursion_plan, _fourier_plan, _cones_plan)
+_METHODS = (_few_plan, _table_plan, _waves_plan, _recursion_plan, _fourier_plan)
 
 
 def _short(k: int) -> str:

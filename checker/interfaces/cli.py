@@ -389,9 +389,11 @@ def _cmd_derive(ns, out, err) -> int:
     if ns.expression.strip().endswith(".qcert") or os.path.isfile(ns.expression):
         raise UsageError(f"derive takes an expression such as \"dedekind(5, 17)\", not a file: it writes a "
                          f"certificate; to check one, run quasicert check {ns.expression}")
+    if ns.steps_per_line is not None and ns.steps_per_line < 1:
+        raise UsageError("--steps-per-line wants a whole number >= 1")
     _refuse_overwrite(ns.output, ns.force)
     try:
-        text = derive(ns.expression)
+        text = derive(ns.expression, ns.steps_per_line)
     except CertificateError as e:
         _print_error(e, ns.expression, "the expression", err)
         return EXIT_ERROR
@@ -446,6 +448,9 @@ def _parser() -> argparse.ArgumentParser:
     d.add_argument("expression")
     d.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
     d.add_argument("--force", action="store_true", help="replace FILE if it exists")
+    d.add_argument("--steps-per-line", type=int, default=None, metavar="N",
+                   help="put N steps of reciprocity and reduce on each line of a Dedekind chain (cited as "
+                        "descent when N > 1); by default one while the chain fits in about 100 lines")
     t = sub.add_parser("latex", help="write a checked certificate as a LaTeX document (failures marked)")
     t.add_argument("path", help="a certificate, or - for standard input")
     t.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")

@@ -4,7 +4,9 @@ For a Dedekind sum s(h, k) the certificate is the Euclid-like chain:
 cancel a common factor, reduce h modulo k, then alternately apply
 reciprocity and reduce (cited together on one line) until s(0, 1) = 0.  Each
 line is  c + e * dedekind(a, b)  with c an exact rational in lowest terms, so
-the lines stay about as long as the numbers themselves.
+the lines stay about as long as the numbers themselves.  A long chain puts
+several of those steps on one line (the rule `descent`), about a hundred
+lines in all: a line per step would make a 1000-digit pair an 8 MB file.
 """
 from __future__ import annotations
 
@@ -27,19 +29,32 @@ def _line(c: Fraction, sign: int, h: int, k: int) -> str:
     return f"{value_text(c)} {'+' if sign > 0 else '-'} {call}"
 
 
-def derive_dedekind(h: int, k: int, label: str = "derived") -> str:
-    """A certificate whose chain computes s(h, k) by reciprocity and reduction."""
+#: a chain of more steps than this puts several on a line, so that it has about this many lines
+AUTOMATIC_LINES = 100
+
+
+def steps_per_line(steps: int, lines: int = AUTOMATIC_LINES) -> int:
+    """Steps of reciprocity and reduce on each line of a chain of `steps` steps: one while they
+    fit in `lines` lines, else as few as keep the chain within them."""
+    return max(1, -(-steps // lines))
+
+
+def derive_dedekind(h: int, k: int, label: str = "derived", per_line: int | None = None) -> str:
+    """A certificate whose chain computes s(h, k) by reciprocity and reduction, `per_line` steps of
+    them on a line (None: `steps_per_line`)."""
     if k < 1:
         raise DomainError(f"dedekind(h, k) needs k >= 1, not {k}")
     out = [f'title "s({value_text(h)}, {value_text(k)}) by reciprocity and reduction"',
            "# written by quasicert derive; check it with: quasicert check FILE",
            f"chain {label}: dedekind({value_text(h)}, {value_text(k)})"]
-    out += _euclid_lines(h, k)
+    out += _euclid_lines(h, k, per_line=per_line)
     return "\n".join(out) + "\n"
 
 
-def _euclid_lines(h: int, k: int, offset: Fraction = Fraction(0), outer: int = 1) -> list[str]:
-    """The steps from the line  offset + outer * s(h, k)  down to its value."""
+def _euclid_lines(h: int, k: int, offset: Fraction = Fraction(0), outer: int = 1,
+                  per_line: int | None = None) -> list[str]:
+    """The steps from the line  offset + outer * s(h, k)  down to its value, `per_line` steps of
+    reciprocity and reduce on a line (None: `steps_per_line`)."""
     def line(c, sign, a, b):
         return _line(offset + outer * c, outer * sign, a, b)
 
@@ -65,12 +80,18 @@ def _euclid_lines(h: int, k: int, offset: Fraction = Fraction(0), outer: int = 1
         twelve[(a, b)] = below
     k0 = chain[0][1]
     total = twelve[chain[0]]                      # 12 k0 s(h, k)
-    sign = 1
-    for a, b in chain[1:]:
-        sign = -sign
+    steps = len(chain) - 1
+    per_line = steps_per_line(steps) if per_line is None else per_line
+    if per_line < 1:
+        raise DomainError(f"a chain line takes at least one step, not {per_line}")
+    for i in list(range(per_line, steps, per_line)) + ([steps] if steps else []):
+        a, b = chain[i]
+        sign = -1 if i % 2 else 1
         # the line c + sign * s(a, b) keeps the value: c = s(h, k) - sign * s(a, b)
         c = Fraction(total * b - sign * k0 * twelve[(a, b)], 12 * k0 * b)
-        out.append(f"  = {line(c, sign, a, b)}    by reciprocity, reduce")
+        taken = i - (i - 1) // per_line * per_line
+        rules = "reciprocity, reduce" if taken == 1 else "descent"
+        out.append(f"  = {line(c, sign, a, b)}    by {rules}")
     value = offset + outer * Fraction(total, 12 * k0)
     out.append(f"  = {value_text(value)}    by value")
     return out
@@ -85,7 +106,7 @@ def _pairwise_coprime(values) -> bool:
                                                 for y in values[i + 1:])
 
 
-def derive_fourier_dedekind(n: int, parts, b: int, label: str = "derived") -> str:
+def derive_fourier_dedekind(n: int, parts, b: int, label: str = "derived", per_line: int | None = None) -> str:
     """A certificate for s_n(A; b): reduce modulo b; for two entries and n = 0 (mod b) the bridge to
     a Dedekind sum and its Euclid-like chain (and, for pairwise coprime [a, c, b], the reciprocity
     law with both companions bridged); for pairwise coprime entries and b the reciprocity law,
@@ -110,7 +131,7 @@ def derive_fourier_dedekind(n: int, parts, b: int, label: str = "derived") -> st
         x = a * pow(c, -1, b) % b if b > 1 else 0
         const = bridge_constant(b)
         out.append(f"  = {_line(const, -1, x, b)}    by bridge")
-        out += _euclid_lines(x, b, const, -1)
+        out += _euclid_lines(x, b, const, -1, per_line)
         if _pairwise_coprime(whole) and b > 1:
             A = sorted(whole)
             sums = " + ".join(_fd_text(0, sorted(whole[:j] + whole[j + 1:]), x) for j, x in enumerate(whole))
@@ -321,8 +342,9 @@ def _refuse_names(expr) -> None:
         stack.extend(ex.children(node))
 
 
-def derive(text: str) -> str:
-    """A certificate for a call: dedekind(h, k), partitions(n, A), lattice_points(t, P), frobenius(A)."""
+def derive(text: str, per_line: int | None = None) -> str:
+    """A certificate for a call: dedekind(h, k), partitions(n, A), lattice_points(t, P), frobenius(A).
+    A Dedekind chain takes `per_line` steps of reciprocity and reduce on a line (None: automatic)."""
     expr = parse_expression(text)
     if not isinstance(expr, Call):
         raise DomainError("derive writes certificates for one function call, "
@@ -335,7 +357,7 @@ def derive(text: str) -> str:
         h, k = [ev.value(a) for a in expr.args]
         if not (isinstance(h, Fraction) and isinstance(k, Fraction) and h.denominator == 1 == k.denominator):
             raise DomainError("dedekind(h, k) needs integers h and k").at(expr)
-        return derive_dedekind(h.numerator, k.numerator)
+        return derive_dedekind(h.numerator, k.numerator, per_line=per_line)
     lattice = expr.name in ("lattice_points", "lattice_points_in") and len(expr.args) in (2, 3)
     if (expr.name == "partitions" and len(expr.args) == 2) or lattice:
         var = expr.args[0]
@@ -361,7 +383,8 @@ def derive(text: str) -> str:
         if not (isinstance(n, Fraction) and isinstance(b, Fraction) and isinstance(parts, tuple)
                 and all(isinstance(v, Fraction) and v.denominator == 1 for v in (n, b) + parts)):
             raise DomainError("fourier_dedekind(n, [a1, ..., am], b) needs integers").at(expr)
-        return derive_fourier_dedekind(n.numerator, [a.numerator for a in parts], b.numerator)
+        return derive_fourier_dedekind(n.numerator, [a.numerator for a in parts], b.numerator,
+                                       per_line=per_line)
     if expr.name == "frobenius" and len(expr.args) == 1:
         return derive_frobenius(ev.value(expr.args[0]))
     raise DomainError("derive writes certificates for dedekind(h, k), fourier_dedekind(n, A, b), partitions(n, A), "

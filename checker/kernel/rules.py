@@ -22,7 +22,7 @@ from math import comb, gcd
 from typing import Callable
 
 from ..mathematics.bernoulli import bernoulli, periodic_bernoulli
-from ..mathematics.dedekind import reciprocity_term
+from ..mathematics.dedekind import reciprocity_descent, reciprocity_term
 from ..mathematics.elementary import sawtooth
 from ..mathematics.fourier_dedekind_reciprocity import (bridge_constant, coprimality_problem, poly_at,
                                                         polynomial_part_cost, reciprocity_range_problem)
@@ -134,9 +134,13 @@ def _require_coprime(h: int, k: int) -> None:
     g = gcd(h, k)
     if g != 1:
         _refuse(f"reciprocity needs coprime h and k, but gcd({h}, {k}) = {g}")
+    _remember_coprime(k % h, h)
+
+
+def _remember_coprime(a: int, b: int) -> None:
     if len(_COPRIME_PAIRS) >= _COPRIME_PAIRS_SIZE:
         _COPRIME_PAIRS.clear()
-    _COPRIME_PAIRS[(k % h, h)] = True
+    _COPRIME_PAIRS[(a, b)] = True
 
 
 def _apostol_right_side(p: int, h: int, k: int) -> Fraction:
@@ -177,6 +181,42 @@ def _reciprocity(atom, target, limits):
     if name == "fourier_dedekind":
         return _fourier_reciprocity(atom, target, limits)
     _refuse(f"it does not apply to {name}")
+
+
+# -- descent: reciprocity and reduce, repeated ---------------------------------
+
+def _descent(atom, target, limits):
+    """s(h, k) = n/(12 k b) +- s(a, b) for a pair (a, b) that reciprocity and reduce, applied in
+    turn, reach from (h, k): the pair is read from the next line (the first one met)."""
+    _only(atom, "dedekind")
+    h, k = _dedekind_args(atom)
+    if h < 1:
+        _refuse(f"descent needs h >= 1 and k >= 1, but h = {h} (use reduce or negate first)")
+    try:
+        _require_coprime(h, k)
+    except RuleRefused as e:
+        _refuse(f"descent repeats reciprocity, which needs coprime h and k: {e.message.split(', but ')[-1]}")
+    wanted = {(x, y) for x, y in _target_dedekind(target) if y >= 1 and (x, y) != (h, k)}
+    found = reciprocity_descent(h, k, wanted) if wanted else []
+    if not found:
+        _refuse(f"the next line has no dedekind(a, b) at a pair that reciprocity and reduce reach from "
+                f"({h}, {k}); they go {_first_pairs(h, k)}")
+    out = []
+    for a, b, n, sign in found:
+        if a >= 1:                        # gcd(a, b) = gcd(h, k): the next line may use it
+            _remember_coprime(a, b)
+        d = 12 * k * b
+        c = Ratio(long_integer(n), long_integer(d)) if d.bit_length() > LONG_BITS else Fraction(n, d)
+        out.append(add(constant(c), scale(_call("dedekind", a, b), Fraction(sign))))
+    return out
+
+
+def _first_pairs(h: int, k: int, count: int = 3) -> str:
+    pairs = []
+    while h and len(pairs) < count:
+        h, k = k % h, h
+        pairs.append(f"({value_text(h)}, {value_text(k)})")
+    return ", ".join(pairs) + (", ..." if h else "")
 
 
 def _rademacher_reciprocity(atom) -> NF:
@@ -607,6 +647,10 @@ RULES: dict[str, Rule] = {r.name: r for r in [
               "the next line (lists in any order, else increasing; sums modulo 1 may be left out)",
               "Zagier, Math. Ann. 202 (1973); Gessel, Electron. J. Combin. 4(2) (1997) #R11"),
          )),
+    Rule("descent", "s(h, k) = T(h, k) - T(k mod h, h) + ... +- s(a, b): reciprocity and reduce applied in turn "
+         "from (h, k) down to the pair (a, b) of the next line, T(h, k) = -1/4 + (h/k + k/h + 1/(hk))/12",
+         "h >= 1, k >= 1, gcd(h, k) = 1; the steps reach (a, b) from (h, k)",
+         "Dedekind (1892); Rademacher & Grosswald (1972), ch. 3 (Euclid's algorithm on the pair)", _descent),
     Rule("negate", "s(h, k) = -s(-h, k); s_p(h, k) = (-1)^p s_p(-h, k)", "k >= 1",
          "definition (the sawtooth is odd)", _negate),
     Rule("inverse", "s(h, k) = s(h', k) where h h' = 1 (mod k)", "gcd(h, k) = 1",

@@ -532,11 +532,13 @@ class _Replay:
         that takes it is checked like any other."""
         cited = [r for r in rules if r[0] != "claim"]
         last = [r for r in rules if r[0] == "claim"]
-        names = [n for n in list(RULES) + ["value", "arithmetic"]]
+        # descent (many steps of reciprocity and reduce) last: the one step it may stand for reads better
+        names = [n for n in list(RULES) + ["value", "arithmetic"] if n != "descent"]
         tries = [[(n, None)] + last for n in names if [(n, None)] != cited]
         for n in names:
             for i in range(len(cited) + 1):
                 tries.append(cited[:i] + [(n, None)] + cited[i:] + last)
+        tries.append([("descent", None)] + last)
         for candidate in tries:
             try:
                 if check_step(prev_nf, next_nf, candidate, self._call, facts, self.limits).rule_ok:

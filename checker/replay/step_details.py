@@ -25,6 +25,7 @@ RULE_SYNONYMS = {
     "periodicity": "reduce", "mod": "reduce", "reduction": "reduce",
     "symmetry": "negate", "odd": "negate", "inversion": "inverse",
     "gcd": "common_factor", "cancel": "common_factor", "rademacher": "three_term",
+    "euclid": "descent", "euclidean": "descent", "continued_fraction": "descent",
 }
 
 

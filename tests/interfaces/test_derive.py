@@ -69,8 +69,73 @@ def test_thousand_digit_derive_is_accepted():
     rng = random.Random(1)
     k = rng.randint(10 ** 999, 10 ** 1000)
     h = rng.randint(1, k)
-    report = check_text(derive_dedekind(h, k))
+    report = check_text(derive_dedekind(h, k, per_line=1))
     assert report.ok and report.checked > 1000
+    report = check_text(derive_dedekind(h, k))
+    assert report.ok and 95 < report.checked < 105
+
+
+def test_round_trip_with_several_steps_a_line():
+    rng = random.Random(2027)
+    for i in range(300):
+        digits = rng.randint(1, 120)
+        k = rng.randint(1, 10 ** digits)
+        h = rng.randint(-10 ** digits, 10 ** digits)
+        per_line = rng.choice([2, 3, 7, 50, 10 ** 6])
+        text = derive_dedekind(h, k, per_line=per_line)
+        report = check_text(text, f"pair {i}")
+        assert report.ok, (h, k, per_line, report.failure.message)
+
+
+def test_a_long_chain_is_written_in_about_a_hundred_lines():
+    rng = random.Random(1)
+    k = rng.randint(10 ** 999, 10 ** 1000)
+    h = rng.randint(1, k)
+    lines = derive_dedekind(h, k).splitlines()
+    steps = [ln for ln in lines if ln.startswith("  = ")]
+    assert 95 <= len(steps) <= 102 and sum("by descent" in ln for ln in steps) >= 95
+    assert len("\n".join(lines)) < 600_000                # a line a step: about 8 MB
+    short = derive_dedekind(123456789, 987654321).splitlines()
+    assert not any("descent" in ln for ln in short)        # 16 steps: one a line, as before
+
+
+def test_grouped_chain_mutants_are_rejected_at_their_line():
+    rng = random.Random(301)
+    k = rng.randint(10 ** 299, 10 ** 300)
+    h = rng.randint(1, k)
+    lines = derive_dedekind(h, k, per_line=6).split("\n")
+    steps = [i for i, ln in enumerate(lines) if ln.startswith("  = ") and "dedekind(" in ln]
+    assert check_text("\n".join(lines)).ok and len(steps) > 80
+    for index in (steps[1], steps[len(steps) // 2], steps[-3]):
+        line = lines[index]
+        call, a, b = _pair(line)
+        num = line.split(" = ", 1)[1].split("/")[0]
+        flipped = line.replace(" - dedekind", " + dedekind") if " - dedekind" in line else \
+            line.replace(" + dedekind", " - dedekind")
+        mutants = {"sign": flipped,
+                   "numerator + 1": line.replace(f"{num}/", f"{int(num) + 1}/", 1),
+                   "a + 1": line.replace(call, f"dedekind({a + 1}, {b})"),
+                   "swapped pair": line.replace(call, f"dedekind({b}, {a})"),
+                   # the pair one step further down, the constant left as it was
+                   "one step further": line.replace(call, f"dedekind({b % a}, {a})"),
+                   "rule: one step": line.replace("by descent", "by reciprocity, reduce"),
+                   "rule: value": line.replace("by descent", "by value")}
+        for what, mutated in mutants.items():
+            assert mutated != line, what
+            report = check_text("\n".join(lines[:index] + [mutated] + lines[index + 1:]))
+            assert not report.ok and report.failure.line == index + 1, (what, report.failure)
+
+
+def test_cli_steps_per_line(tmp_path):
+    out = io.StringIO()
+    assert main(["derive", "dedekind(1234567891, 9876543211)", "--steps-per-line", "3"], out=out) == 0
+    text = out.getvalue()
+    # 7 steps (9876543211 = 8 * 1234567891 + 3, ...): lines after 3, 6 and 7 of them
+    assert text.count("by descent") == 2 and text.count("by reciprocity, reduce") == 1
+    assert check_text(text).ok
+    err = io.StringIO()
+    assert main(["derive", "dedekind(5, 17)", "--steps-per-line", "0"], out=io.StringIO(), err=err) == 2
+    assert "--steps-per-line wants a whole number >= 1" in err.getvalue()
 
 
 def test_cli_derive_then_check(tmp_path):
@@ -99,7 +164,7 @@ def _chain_300():
     rng = random.Random(300)
     k = rng.randint(10 ** 299, 10 ** 300)
     h = rng.randint(1, k)
-    text = derive_dedekind(h, k)
+    text = derive_dedekind(h, k, per_line=1)
     lines = text.split("\n")
     return lines, [i for i, ln in enumerate(lines) if ln.startswith("  = ") and "dedekind(" in ln]
 

@@ -205,3 +205,57 @@ def test_reduce_to_a_wrong_residue_fails_the_step(h, k):
     report = chain(f"dedekind({h + k}, {k})", f"dedekind({(h + 1) % k + k * 3}, {k})", "reduce")
     assume((h + 1 - h) % k)
     assert not report.ok
+
+
+# -- descent -------------------------------------------------------------------
+
+def _expanded(h, k, steps):
+    """The line that `reciprocity, reduce` cited `steps` times in a row gives from s(h, k)."""
+    from checker.kernel.verdicts import check_step
+    from checker.kernel.normal import atom_nf
+    start = atom_nf(("dedekind", (F(h), F(k))))
+    a, b = h, k
+    for _ in range(steps):
+        a, b = b % a, a
+    target = atom_nf(("dedekind", (F(a), F(b))))
+    verdict = check_step(start, target, [("reciprocity", None), ("reduce", None)] * steps,
+                         None, {}, DEFAULT_LIMITS)
+    (line,) = verdict.candidates
+    return line, (a, b)
+
+
+@given(st.integers(2, 10 ** 12).flatmap(lambda k: st.tuples(st.integers(1, k - 1), st.just(k))),
+       st.integers(1, 12))
+def test_descent_is_reciprocity_and_reduce_repeated(pair, steps):
+    # h < k: from h >= k on, the first step is reciprocity alone (s(k, h) is already reduced)
+    h, k = pair
+    assume(gcd(h, k) == 1)
+    a, b, walk = h, k, 0
+    while a and walk < steps:
+        a, b, walk = b % a, a, walk + 1
+    line, pair = _expanded(h, k, walk)
+    target = {("dedekind", (F(pair[0]), F(pair[1])))}
+    (got,) = rewrite("descent", ("dedekind", (F(h), F(k))), target)
+    assert got == line
+    assert value(got) == dedekind(h, k)
+
+
+def test_descent_refusals():
+    s = ("dedekind", (F(5), F(17)))
+    assert "no dedekind(a, b) at a pair" in refusal("descent", s, [("dedekind", (F(1), F(3)))])
+    assert "they go (2, 5), (1, 2), (0, 1)" in refusal("descent", s, [("dedekind", (F(1), F(3)))])
+    assert "no dedekind(a, b)" in refusal("descent", s, [s])          # zero steps are no descent
+    assert "gcd(4, 10) = 2" in refusal("descent", ("dedekind", (F(4), F(10))), [("dedekind", (F(2), F(4)))])
+    assert "h >= 1" in refusal("descent", ("dedekind", (F(-5), F(17))), [("dedekind", (F(2), F(5)))])
+    assert "k >= 1" in refusal("descent", ("dedekind", (F(5), F(0))), [])
+    assert "does not apply to generalized_dedekind" in refusal(
+        "descent", ("generalized_dedekind", (F(1), F(5), F(17))), [])
+
+
+def test_descent_in_a_chain_and_in_a_lemma():
+    assert chain("dedekind(5, 17)", "1/17 + dedekind(1, 2)", "descent").ok        # s(5, 17) = 1/17
+    report = check_text("lemma one(k) for k >= 2: dedekind(1, k) = (k - 1)*(k - 2)/(12*k)\n"
+                        "  chain dedekind(1, k)\n"
+                        "    = (k - 1)*(k - 2)/(12*k) - dedekind(0, 1)    by descent\n"
+                        "end\n")
+    assert not report.ok and "descent has no form for calls with parameters" in " ".join(report.failure.details)

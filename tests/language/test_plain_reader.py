@@ -37,7 +37,9 @@ def _text(path):
 CORPUS = [t for t in (_text(p) for p in BUNDLED + BROKEN) if t is not None]
 SMALL_DERIVED = [derive_dedekind(h, k) for h, k in ((5, 17), (12345678901, 98765432109876), (3, 10**30 + 7))]
 CORPUS += SMALL_DERIVED
-DERIVED = [derive_dedekind(h, k) for h, k in ((1, 2), (2, 1), (6, 4), (8 ** 90 + 1, 7 ** 120), (3 ** 700, 2 ** 1500 + 1))]
+DERIVED = [derive_dedekind(h, k, per_line=1)
+           for h, k in ((1, 2), (2, 1), (6, 4), (8 ** 90 + 1, 7 ** 120), (3 ** 700, 2 ** 1500 + 1))]
+DERIVED.append(derive_dedekind(3 ** 700, 2 ** 1500 + 1))       # several steps a line: `by descent`
 CORPUS += ["", "# only a comment\n", "claim 1 = 1", "claim a: 2 <= 3\nclaim b: 3 \u2265 2\nclaim c: 1 \u2260 2",
            "let x = -(2)^-3 \u00b7 4 \u00d7 5 \u2212 +6\nclaim x == 3 mod 7\n",
            "chain c: dedekind(3, 7)\n  = dedekind(3, 7) by reduce, claim a\n  = dedekind(3, 7) by negate\n"]

@@ -11,7 +11,8 @@ from checker.mathematics.dedekind import (dedekind, dedekind_along_euclid, dedek
                                           dedekind_equals, twelve_k_dedekind,
                                           generalized_dedekind_by_reciprocity,
                               dedekind_rademacher, generalized_dedekind,
-                              generalized_dedekind_by_definition, reciprocity_term)
+                              generalized_dedekind_by_definition, reciprocity_descent,
+                              reciprocity_term)
 from checker.mathematics.elementary import sawtooth
 from checker.mathematics.bernoulli import periodic_bernoulli
 from checker.foundation.errors import DomainError
@@ -467,3 +468,44 @@ def test_common_factors_of_every_size_against_python_flint(gmpy2_mode):
         for m in (2, 3, 10**50 + 1, 2**800):
             exact(dedekind(h, h * m), _flint_dedekind(1, m))
             exact(dedekind(-h, h * m), -_flint_dedekind(1, m))
+
+
+# -- reciprocity_descent: the constants of many reciprocity steps at once ------------------------
+
+@given(st.integers(1, 10 ** 40), st.integers(1, 10 ** 40))
+def test_descent_constants_are_the_summed_reciprocity_terms(h, k):
+    # the definition of the walk: Dedekind's law term by term, in Fractions
+    g = gcd(h, k)
+    h, k = h // g, k // g
+    a, b, total, sign = h, k, Fraction(0), 1
+    walk = reciprocity_descent(h, k)
+    for x, y, n, s in walk:
+        total += sign * reciprocity_term(a, b)
+        a, b, sign = b % a, a, -sign
+        assert (x, y, s) == (a, b, sign)
+        assert Fraction(n, 12 * k * y) == total
+    assert walk[-1][:2] == (0, 1)
+
+
+def test_descent_against_python_flint():
+    # s(h, k) = n / (12 k b) + (-1)^i s(a, b) at every pair, both sums from python-flint
+    rng = random.Random(77)
+    for _ in range(40):
+        k = rng.randint(1, 10 ** rng.randint(1, 400))
+        h = rng.randint(1, 2 * k)
+        if gcd(h, k) != 1:
+            continue
+        whole = flint_fraction(flint.fmpq.dedekind_sum(h, k))
+        walk = reciprocity_descent(h, k)
+        for a, b, n, sign in walk[::max(1, len(walk) // 7)] + walk[-1:]:
+            assert Fraction(n, 12 * k * b) + sign * flint_fraction(flint.fmpq.dedekind_sum(a, b)) == whole
+
+
+def test_descent_stops_at_the_wanted_pairs():
+    # 17 = 3 * 5 + 2, 5 = 2 * 2 + 1, 2 = 2 * 1: the pairs (2, 5), (1, 2), (0, 1)
+    assert reciprocity_descent(5, 17, {(1, 2)}) == [(1, 2, 24, 1)]
+    assert reciprocity_descent(5, 17, {(1, 3)}) == []
+    assert reciprocity_descent(5, 17, set()) == []
+    assert reciprocity_descent(17, 5)[0][:2] == (5, 17)        # h > k: the first step swaps
+    with pytest.raises(DomainError):
+        reciprocity_descent(0, 5)

@@ -124,7 +124,7 @@ def check_time() -> None:
 
 def call_within(seconds: float, fn, args: tuple):
     """fn(*args) as `with time_limit(seconds): check_time(); return fn(*args)` runs it: the same
-    deadline (an outer one if sooner), the same check first, in a third of the time (no
+    deadline (an outer one if sooner), the same check first, in about half the time (not the
     context manager's three calls: it opens every evaluation of a number call)."""
     deadline = time.monotonic() + seconds
     outer = _DEADLINE.get()

@@ -12,7 +12,7 @@ from dataclasses import dataclass, fields, replace
 
 from .errors import BudgetExceeded, OutOfTime
 
-__all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES", "time_limit", "check_time", "current_deadline"]
+__all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES", "time_limit", "check_time", "call_within", "current_deadline"]
 
 #: limits renamed since an earlier version: old name -> new name
 FORMER_NAMES = {"unfold_terms": "definition_terms"}
@@ -119,9 +119,29 @@ def check_time() -> None:
     """Raise OutOfTime when the current check has run past its `seconds` limit."""
     current = _DEADLINE.get()
     if current is not None and time.monotonic() > current[0]:
-        raise OutOfTime(f"the check has run for more than {_seconds(current[1])} s, the limit seconds = "
-                        f"{_seconds(current[1])} (raise it with --limit seconds=N); it stopped here, "
-                        "and nothing from here on was checked")
+        raise _out_of_time(current[1])
+
+
+def call_within(seconds: float, fn, args: tuple):
+    """fn(*args) as `with time_limit(seconds): check_time(); return fn(*args)` runs it: the same
+    deadline (an outer one if sooner), the same check first, in about half the time (not the
+    context manager's three calls: it opens every evaluation of a number call)."""
+    deadline = time.monotonic() + seconds
+    outer = _DEADLINE.get()
+    current = outer if outer is not None and outer[0] <= deadline else (deadline, seconds)
+    token = _DEADLINE.set(current)
+    try:
+        if time.monotonic() > current[0]:
+            raise _out_of_time(current[1])
+        return fn(*args)
+    finally:
+        _DEADLINE.reset(token)
+
+
+def _out_of_time(seconds) -> OutOfTime:
+    return OutOfTime(f"the check has run for more than {_seconds(seconds)} s, the limit seconds = "
+                     f"{_seconds(seconds)} (raise it with --limit seconds=N); it stopped here, "
+                     "and nothing from here on was checked")
 
 
 def _seconds(s) -> str:

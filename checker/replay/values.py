@@ -4,7 +4,7 @@ from __future__ import annotations
 from fractions import Fraction
 
 from ..foundation.limits import DEFAULT_LIMITS, Limits, time_limit
-from ..kernel.evaluation import Evaluator
+from ..kernel.evaluation import Evaluator, value_of_number_call
 from ..language.parsing import parse_expression, read_number_call
 
 __all__ = ["evaluate", "evaluate_value"]
@@ -26,9 +26,7 @@ def evaluate(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS
     """
     call = read_number_call(text, limits)
     if call is not None:        # NAME(INT, ..., INT): no tree unless an error wants its position
-        with time_limit(limits.seconds):
-            name, values, _ = call
-            return Evaluator(env, limits).number_of_call(name, values, call.tree)
+        return value_of_number_call(call, limits)
     expr = parse_expression(text, limits)
     with time_limit(limits.seconds):
         return Evaluator(env, limits).number(expr)

@@ -193,3 +193,63 @@ def test_int_path_against_the_fraction_path(h, k, g, limits):
 def _timed(limits, fn):
     with time_limit(limits.seconds):
         return fn()
+
+
+ARGUMENTS = ["0", "7", "0007", "12345678901234567890", "9" * 149, "", " ", "\t", "1 2", "-3", "+3", "\u2212" "3",
+             "\u0663", "\uff11", "\u00b2", "1_000", "1e3", "0x1f", "1.5", "(1)", "x", "[1]", "3#c\n"]
+
+
+def test_two_arguments_piece_by_piece():
+    # every pair of argument pieces, and each separator and trailing piece, in the two-argument call
+    # (the reader's own branch for it); the reader takes exactly the ASCII-digit pairs, and each text
+    # agrees with Lark and the tree path (_agree)
+    digits = {"0", "7", "0007", "12345678901234567890", "9" * 149}
+    for first in ARGUMENTS:
+        for second in ARGUMENTS:
+            text = f"dedekind({first}, {second})"
+            assert _agree(text) == (first.strip() in digits and second.strip() in digits), text
+    for between in [",", " , ", ",\t", "\t,", ",,", ", ,", ";", ", #c\n", ",\n", "\u060c", "\uff0c"]:
+        assert _agree(f"dedekind(5{between}17)") == (between.strip(" \t") == ","), between
+    for before, after in [("", " "), ("\t", "\t"), ("", "x"), ("", " # c"), ("", "\n"), ("", "(3)"), ("", "+1"),
+                          ("", ")"), ("", ","), ("-", ""), ("+", ""), ("(", ")"), ("# c\n", ""), ("\ufeff", "")]:
+        assert _agree(f"{before}dedekind(5, 17){after}") == (before + after in ("", " ", "\t\t")), (before, after)
+
+
+@pytest.mark.parametrize("limits", [DEFAULT_LIMITS, Limits(literal_digits=149), Limits(literal_digits=150),
+                                    Limits(integer_bits=500)])
+def test_two_arguments_near_the_short_read(limits):
+    # the arguments' text up to 300 characters goes to int() at once, longer ones digit run by digit
+    # run; both ways read the same numbers and refuse the same texts, at the literal-digits limit too
+    for length in (148, 149, 150):
+        for blanks in ("", " ", "  ", " \t "):
+            h, k = "7" * length, "9" * length
+            text = f"dedekind({h},{blanks}{k})"
+            read = _agree(text, limits)
+            assert read == (length <= limits.literal_digits), (length, blanks)
+            if read:
+                assert read_number_call(text, limits).values == (int(h), int(k))
+                if limits is DEFAULT_LIMITS:
+                    assert evaluate(text) == flint_fraction(flint.fmpq.dedekind_sum(int(h), int(k)))  # python-flint
+
+
+def test_the_int_path_s_own_checks(monkeypatch):
+    # a function that takes ints, called from a text: the value gets the size check and the list
+    # check of the tree path, at the call's position, and runs under the `seconds` deadline
+    from dataclasses import replace
+    from checker.foundation.limits import current_deadline
+    from checker.kernel import functions
+    seen = []
+
+    def recording(h, k):
+        seen.append(current_deadline())
+        return Fraction(h, k) if k else (Fraction(h),)
+    monkeypatch.setitem(functions.REGISTRY, "dedekind", replace(functions.REGISTRY["dedekind"], impl=recording))
+    assert _outcome(lambda: evaluate(" dedekind(3, 0)")) == \
+        ("error", "DomainError", "a list stands where a number is needed", 1, 2, 16)
+    assert _outcome(lambda: evaluate("dedekind(1, 1024)", limits=Limits(integer_bits=10))) == \
+        ("error", "BudgetExceeded", "an intermediate value has 11 bits, over the limit integer-bits = 10", 1, 1, 18)
+    assert evaluate("dedekind(1, 1023)", limits=Limits(integer_bits=10)) == Fraction(1, 1023)
+    for text in (" dedekind(3, 0)", "dedekind(1, 1024)"):
+        assert _agree(text, Limits(integer_bits=10))
+    assert seen and all(deadline is not None for deadline in seen)
+    assert current_deadline() is None

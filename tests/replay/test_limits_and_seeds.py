@@ -70,3 +70,48 @@ def test_crlf_line_ends_are_read_as_line_ends():
     report = check_text("claim dedekind(5, 17) = 1/17   # note\r\nclaim dedekind(1, 3) = 5\r\n")
     f = report.failure
     assert f is not None and (f.line, f.kind) == (2, "failed")     # s(1, 3) = 1/18 (python-flint)
+
+
+def _deadline_seen_by(run):
+    """(what run gives, the deadline its function saw, the deadline afterwards)."""
+    from checker.foundation.limits import current_deadline
+    seen = []
+    result = run(lambda: seen.append(current_deadline()) or "done")
+    return result, seen[0] if seen else None, current_deadline()
+
+
+def test_call_within_is_time_limit_then_check_time():
+    # the number-call fast path's clock: the same deadline as `with time_limit(s): check_time(); fn()`,
+    # a sooner outer one kept, the check before fn, the outer deadline restored afterwards
+    from checker.foundation.errors import OutOfTime
+    from checker.foundation.limits import call_within, check_time, current_deadline, time_limit
+
+    def by_the_block(seconds):
+        def run(fn):
+            with time_limit(seconds):
+                check_time()
+                return fn()
+        return run
+
+    def by_call_within(seconds):
+        return lambda fn: call_within(seconds, fn, ())
+
+    assert current_deadline() is None
+    for seconds in (600, 5):
+        result, seen, after = _deadline_seen_by(by_call_within(seconds))
+        assert (result, seen[1], after) == ("done", seconds, None)
+        with time_limit(30):
+            outer = current_deadline()
+            for run in (by_the_block, by_call_within):
+                result, seen, after = _deadline_seen_by(run(seconds))
+                assert result == "done" and after == outer
+                assert seen[1] == min(seconds, 30) and (seen == outer) == (seconds >= 30)
+    for outer, inner in ((600, 0), (0, 600)):       # its own limit passed, or the outer one
+        messages = []
+        for run in (by_the_block, by_call_within):
+            with time_limit(outer):
+                with pytest.raises(OutOfTime) as caught:
+                    run(inner)(lambda: pytest.fail("ran after the deadline"))
+                messages.append(caught.value.message)
+        assert messages[0] == messages[1] and messages[0].startswith("the check has run for more than 0 s")
+    assert current_deadline() is None

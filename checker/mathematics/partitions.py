@@ -181,7 +181,9 @@ def plans(n: int, parts) -> list[Plan]:
     return found
 
 
-_CONES_WORTH = 10**6      # steps (about 0.1 s); below it the cones' set-up alone may cost as much
+#: steps (0.3-1 s); below it the cones are not tried: an attempt that stops at its allowance doubles the
+#: time, as for five parts near 10^6 at n = 3 10^8 (the recursion's 4.5 10^6 steps, 0.23 s; the cones need 5.4 10^6)
+_CONES_WORTH = 10**7
 #: beyond this the cones are not offered: the simplex's set-up is not metered (30 ms at 12 parts,
 #: 1.6 s at 30, 33 s at 60, measured) and from 10 parts near 10^9 the decomposition outgrows the budget
 _CONES_MOST_PARTS = 12

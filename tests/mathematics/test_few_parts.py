@@ -214,23 +214,28 @@ def test_six_parts_near_a_billion_by_the_cones():
 def test_cones_over_their_allowance_give_way_and_leave_nothing_behind(monkeypatch):
     from checker.mathematics import ehrhart
     from checker.mathematics.cones import TooCostly, allowance
-    from checker.mathematics.ehrhart import CONE_STEP
-    # five pairwise coprime parts near 3 10^4: the Fourier-Dedekind sums cost about 2.4 10^6 steps and the
-    # cones about twice that, so the cones stop at their allowance and the Fourier-Dedekind sums answer
-    parts, n = (30011, 30013, 30029, 30047, 30059), 10**7 + 17
+    # four pairwise coprime parts near 10^6 at n = 10^30: the cones need about 10^6 steps, the Fourier-Dedekind
+    # sums 4.8 10^7 (1.2 10^7 terms).  With a budget of 1000 terms more than those, the cones get an allowance
+    # of 30000 steps, stop there, and the Fourier-Dedekind sums answer
+    parts, n = NEAR_A_MILLION[:4], 10**30
     first, fourier = plan(n, parts), plan_named("Fourier-Dedekind", n, parts)
     assert first.method == "cones" and first.steps == fourier.steps
+    tight = DEFAULT_LIMITS.with_overrides({"terms": fourier.terms + 1000})
+    simplex = ehrhart._simplex_of_parts(tuple(sorted(parts)))
     ehrhart._CONES.clear()
     with pytest.raises(TooCostly):
-        ehrhart.restricted_partitions(n, parts, allowance(fourier.steps // CONE_STEP))
-    simplex = ehrhart._simplex_of_parts(parts)
+        ehrhart.restricted_partitions(n, sorted(parts), allowance(100))
     assert simplex not in ehrhart._CONES                 # nothing half-built is kept
-    expected = partitions_by_table(n, parts)             # independent: the coefficient table of prod 1/(1 - x^a)
-    assert partitions(n, list(parts)) == expected
-    assert simplex not in ehrhart._CONES
-    # a later run without an allowance builds the whole decomposition afresh, and agrees
-    assert ehrhart.restricted_partitions(n, parts) == expected
+    value = REGISTRY["partitions"].call((Fraction(n), tuple(map(Fraction, parts))), tight)
+    assert simplex not in ehrhart._CONES                 # the cones stopped again: the Fourier-Dedekind sums answered
+    # independent value: the cones themselves, unmetered, built afresh (Barvinok; shares nothing with Gessel's
+    # decomposition), which must not have been disturbed by the attempts that stopped
+    assert value == ehrhart.restricted_partitions(n, sorted(parts))
     assert simplex in ehrhart._CONES
+    # a budget of 100 terms: no other method fits, and the cones refuse once they spend it
+    with pytest.raises(BudgetExceeded):
+        REGISTRY["partitions"].call((Fraction(n), tuple(map(Fraction, parts))),
+                                    DEFAULT_LIMITS.with_overrides({"terms": 100}))
     ehrhart._CONES.clear()
 
 

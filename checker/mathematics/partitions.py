@@ -27,7 +27,8 @@ rational arithmetic.
 formula for at most three parts (few_parts: Popoviciu's formula and floor sums, O(log) at any
 size), the sum over the multiples of the largest parts down to three, the Fourier-Dedekind
 decomposition for pairwise coprime parts (O(m sum A)), the waves above, and the coefficient
-table (O(n d)).
+table (O(n d)); when all of them are dear, Barvinok's cones of the simplex are tried first,
+metered against an allowance of the cheapest one's cost (see "choosing a method" below).
 
 OEIS A001399 (partitions into parts 1, 2, 3) and Sylvester's coin problem:
 

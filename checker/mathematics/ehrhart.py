@@ -370,7 +370,7 @@ def count(poly: Polyhedron, t: int, spend: Spend = None, interior: bool = False)
         interpolation = D * (e + 1) * _cost(fr, reach)
         if poly in _CONES or min(direct, interpolation) > max(CONES_FROM, CONE_STEP * decomposition_cost(
                 fr.rows, fr.vertices)):
-            return count_by_cones(poly, t, spend, interior)
+            return count_by_cones(poly, t, _as_terms(spend), interior)
         if t <= reach or direct <= interpolation:
             return _direct(poly, fr, t, interior, spend)
         known = constituents(poly, spend)
@@ -384,7 +384,19 @@ CONES_FROM = 50_000
 #: one step of `cones.decomposition_cost` takes about as long as this many enumeration steps
 #: (measured on knapsack simplices and cubes in dimensions 3-5: 250 to 500)
 CONE_STEP = 300
+#: the cones' steps are charged to `terms` at this many terms each: a cone step takes 10-15 us (measured on
+#: knapsack simplices of dimension 3 to 13 and on cubes, its charge growing with the size of the entries), so
+#: the default budget stops a decomposition after about 6 10^5 cone steps, 7 to 9 s, where one term a step let
+#: it run 36 s and more; the 1024 cones of the 10-cube (3.3 10^5 steps, 4.8 s) still fit
+CONE_TERMS = 5
 _CONES: dict = {}
+
+
+def _as_terms(spend: Spend) -> Spend:
+    """The spend of a cone decomposition against the `terms` budget: CONE_TERMS terms per cone step."""
+    if spend is None:
+        return None
+    return lambda steps: spend(steps * CONE_TERMS)
 
 
 def cone_sum(poly: Polyhedron, spend: Spend = None) -> ConeSum:

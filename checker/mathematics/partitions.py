@@ -27,7 +27,8 @@ rational arithmetic.
 formula for at most three parts (few_parts: Popoviciu's formula and floor sums, O(log) at any
 size), the sum over the multiples of the largest parts down to three, the Fourier-Dedekind
 decomposition for pairwise coprime parts (O(m sum A)), the waves above, and the coefficient
-table (O(n d)).
+table (O(n d)); when all of them are dear, Barvinok's cones of the simplex are tried first,
+metered against an allowance of the cheapest one's cost (see "choosing a method" below).
 
 OEIS A001399 (partitions into parts 1, 2, 3) and Sylvester's coin problem:
 
@@ -50,8 +51,8 @@ from math import factorial, gcd, prod
 
 from .bernoulli import bernoulli_numbers
 from .elementary import as_integer, as_positive
-from ..foundation.errors import DomainError
-from ..foundation.limits import check_time
+from ..foundation.errors import BudgetExceeded, DomainError
+from ..foundation.limits import DEFAULT_LIMITS, Limits, check_time
 from .few_parts import few_parts
 from .fourier_dedekind import cyclic_convolution, fourier_dedekind
 
@@ -68,18 +69,19 @@ def check_parts(parts, what: str = "partitions", allow_empty: bool = False) -> t
     return tuple(as_positive(a, f"each part in {what}") for a in parts)
 
 
-def partitions(n, parts) -> Fraction:
+def partitions(n, parts, limits: Limits | None = None) -> Fraction:
     """p_A(n) by the cheapest method that applies (see `plan`).
 
     With no parts, p_A(n) is 1 at n = 0 and 0 elsewhere: the generating function
-    is the empty product 1 (Stanley, *Enumerative Combinatorics I*, 1.8).
+    is the empty product 1 (Stanley, *Enumerative Combinatorics I*, 1.8).  `limits`
+    (default DEFAULT_LIMITS): the budget that Barvinok's cones spend within as they run.
     """
     n = as_integer(n, "the first argument of partitions")
     parts = check_parts(parts, allow_empty=True)
-    return Fraction(plan(n, parts).run())
+    return Fraction(plan(n, parts).run(limits))
 
 
-def partitions_extended(n, parts) -> Fraction:
+def partitions_extended(n, parts, limits: Limits | None = None) -> Fraction:
     """P_A(n): the quasi-polynomial that equals p_A(n) for n > -sum(A), at any integer n.
 
     Below the threshold, reciprocity P_A(-n) = (-1)^(d-1) P_A(n - sum A) (Stanley, Adv.
@@ -88,8 +90,8 @@ def partitions_extended(n, parts) -> Fraction:
     n = as_integer(n, "the first argument of partitions_extended")
     parts = check_parts(parts, "partitions_extended")
     if n <= -sum(parts):
-        return (-1) ** (len(parts) - 1) * Fraction(plan(-n - sum(parts), parts).run())
-    return Fraction(plan(n, parts).run())
+        return (-1) ** (len(parts) - 1) * Fraction(plan(-n - sum(parts), parts).run(limits))
+    return Fraction(plan(n, parts).run(limits))
 
 
 def table_cost(n: int, parts: tuple[int, ...]) -> int:
@@ -130,15 +132,23 @@ _QP_COSTS: dict = {}     # values only, keyed by the sorted parts: it cannot go 
 #
 # Every method computes the same p_A(n); `plan` reduces the question first (parts larger than n
 # are never used; a common divisor g of A leaves p_{A/g}(n/g) or 0) and then takes the method
-# with the least estimated work.  `steps` are comparable work units (about 100 ns each here:
+# with the least estimated work.  `steps` are comparable work units (about 40-100 ns each here:
 # one entry of the table); `terms` is what the budget `terms` is charged: the length of the
 # method's enumeration.  A polytope engine is one of them: the lattice points of the simplex
-# {x >= 0 : a.x = n} by Barvinok's signed cones (`ehrhart.restricted_partitions`), which costs
-# log-sized work in n and the parts for a fixed number of parts; its estimate analyses the
-# simplex, so it is asked only when every other method would cost more than _CONES_WORTH.
+# {x >= 0 : a.x = n} by Barvinok's signed cones (`ehrhart.restricted_partitions`), log-sized in
+# n and the parts for a fixed number of parts.  No estimate of its work is good enough to choose
+# by (the one in `cones.decomposition_cost` errs by a factor 1000 on parts close together, and
+# 3 times low on some random ones), so it is not estimated but metered: when every other method
+# would cost _CONES_WORTH steps or more, the cones run first with an allowance of what the
+# cheapest other method would cost (or, if that one is over the budget, of what the budget admits),
+# and if they spend it they stop (TooCostly) and that method runs instead, or the budget refuses.
+# The total work is then at most twice the other method's, and no value ever rests on an estimate.
 
 class Plan:
-    """One way to compute p_A(n): the method's name, its estimates, and how to run it."""
+    """One way to compute p_A(n): the method's name, its estimates, and how to run it.
+
+    `run(limits)`: the metered plan ("cones") spends within the limits' `terms`; the others
+    were charged their `terms` up front by the caller."""
 
     __slots__ = ("method", "n", "parts", "steps", "terms", "what", "_run")
 
@@ -146,33 +156,49 @@ class Plan:
         self.method, self.n, self.parts = method, n, parts
         self.steps, self.terms, self.what, self._run = steps, terms, what, run
 
-    def run(self) -> int:
-        return int(self._run())
+    def run(self, limits: Limits | None = None) -> int:
+        return int(self._run(limits or DEFAULT_LIMITS))
 
 
 def plan(n: int, parts) -> Plan:
-    """The cheapest method for p_A(n) (parts a tuple of positive ints)."""
-    return min(plans(n, parts), key=lambda p: p.steps)
+    """The method `partitions` runs (parts a tuple of positive ints): the cones when offered, else the cheapest."""
+    found = plans(n, parts)
+    return next((p for p in found if p.method == "cones"), None) or min(found, key=lambda p: p.steps)
 
 
 def plans(n: int, parts) -> list[Plan]:
-    """Every method that applies to p_A(n), after the reductions; at least one."""
+    """Every method that applies to p_A(n), after the reductions; at least one.
+
+    The cones are offered for 4 to _CONES_MOST_PARTS parts when every other method costs
+    _CONES_WORTH steps or more; their plan runs the cheapest of the others when the cones
+    spend their allowance."""
     n, parts = _reduce(n, tuple(parts))
     if n is None:
-        return [Plan("zero", 0, (), 1, 0, "p_A(n) = 0", lambda: 0)]
+        return [Plan("zero", 0, (), 1, 0, "p_A(n) = 0", lambda limits: 0)]
     found = [p for p in (make(n, parts) for make in _METHODS) if p is not None]
-    if min((p.steps for p in found), default=_CONES_WORTH) >= _CONES_WORTH:
-        cones = _cones_plan(n, parts)       # its estimate analyses the simplex: only when it may pay
-        if cones is not None:
-            found.append(cones)
+    cheapest = min(found, key=lambda p: p.steps, default=None)
+    if 3 < len(parts) <= _CONES_MOST_PARTS and (cheapest is None or cheapest.steps >= _CONES_WORTH):
+        found.append(_cones_plan(n, parts, cheapest))
     return found
 
 
-_CONES_WORTH = 10**6      # steps (about 0.1 s); below it another method is as quick as the cones' estimate
+#: steps (0.3-1 s); below it the cones are not tried: an attempt that stops at its allowance doubles the
+#: time, as for five parts near 10^6 at n = 3 10^8 (the recursion's 4.5 10^6 steps, 0.23 s; the cones need 5.4 10^6)
+_CONES_WORTH = 10**7
+#: beyond this the cones are not offered: the simplex's set-up is not metered (0.1 s at 12 parts,
+#: 1.6 s at 30, 33 s at 60, measured) and from 10 parts near 10^9 the decomposition outgrows the budget
+_CONES_MOST_PARTS = 12
+#: the cones are charged one term per this many steps of their metered work (the waves: 20), so the
+#: default budget admits about 9 10^7 steps of cone work (3 10^5 cone steps of 10-15 us) before it
+#: refuses: five random parts near 10^9 are refused after 4.4 to 6.8 s, measured on a loaded machine
+_CONE_STEPS_PER_TERM = 30
 
 
 def partitions_cost(n: int, parts) -> tuple[int, str]:
-    """(terms, what) of the cheapest method: what the budget is charged before the work."""
+    """(terms, what) of the method `partitions` runs: what the budget is charged before the work.
+
+    The cones are charged nothing up front: they meter their own work against the budget as they
+    run (see `_cones_plan`), and refuse once it is spent."""
     p = plan(n, parts)
     return p.terms, f"p_A(n) {p.what}"
 
@@ -202,7 +228,7 @@ def _few_plan(n, parts):
     # Popoviciu's formula and two floor sums: about 150 table steps at 100 bits (measured)
     return Plan("few parts", n, parts, 2 * _bits(n, parts), _bits(n, parts),
                 f"for {len(parts)} parts by Popoviciu's formula and floor sums",
-                lambda: few_parts(n, parts))
+                lambda limits: few_parts(n, parts))
 
 
 def _table_plan(n, parts):
@@ -210,7 +236,7 @@ def _table_plan(n, parts):
         return None
     cost = table_cost(n, parts)
     return Plan("table", n, parts, cost, cost, f"by a table of {n + 1} coefficients for {len(parts)} parts",
-                lambda: partitions_by_table(n, parts))
+                lambda limits: partitions_by_table(n, parts))
 
 
 def _waves_plan(n, parts):
@@ -219,7 +245,7 @@ def _waves_plan(n, parts):
     cost = quasipolynomial_cost(parts)
     return Plan("waves", n, parts, cost, cost // 20,
                 f"by the waves of P_A for parts up to {max(parts)}",
-                lambda: PartitionQuasiPolynomial.of(parts).value(n))
+                lambda limits: PartitionQuasiPolynomial.of(parts).value(n))
 
 
 def recursion_leaves(n: int, big) -> int:
@@ -245,7 +271,7 @@ def _recursion_plan(n, parts):
     leaves = recursion_leaves(n, big)
     return Plan("recursion", n, parts, leaves * 2 * _bits(n, parts), leaves,
                 f"by summing over multiples of the {len(big)} largest parts: up to {_short(leaves)} "
-                "three-part values", lambda: _by_recursion(n, small, big))
+                "three-part values", lambda limits: _by_recursion(n, small, big))
 
 
 def _fourier_plan(n, parts):
@@ -256,26 +282,50 @@ def _fourier_plan(n, parts):
         # sums of one or two terms are closed forms and floor sums: O(log), a second opinion to Popoviciu
         return Plan("Fourier-Dedekind", n, parts, 20 * _bits(n, parts), _bits(n, parts),
                     f"for {m} pairwise coprime parts by Fourier-Dedekind sums of at most two terms",
-                    lambda: partitions_by_fourier_dedekind(n, parts))
+                    lambda limits: partitions_by_fourier_dedekind(n, parts))
     entries = sum(parts) * (m - 1)
     return Plan("Fourier-Dedekind", n, parts, 4 * entries + m ** 4, entries,
                 f"for {m} pairwise coprime parts by {m} Fourier-Dedekind sums modulo parts up to {max(parts)}",
-                lambda: partitions_by_fourier_dedekind(n, parts))
+                lambda limits: partitions_by_fourier_dedekind(n, parts))
 
 
-def _cones_plan(n, parts):
-    if len(parts) <= 3:
-        return None                                   # Popoviciu's formula is cheaper still
-    from .ehrhart import restricted_partitions, restricted_partitions_cost
-    # the decomposition of the simplex's cones (nothing once cached), then one pass over its
-    # unimodular cones per value: measured at a tenth to a twentieth of the decomposition
-    decomposition, per_value = restricted_partitions_cost(parts, per_value=True)
-    steps = decomposition + per_value
-    # charged as about 30 steps a term (the waves: 20), so the default budget admits a few seconds
-    # of estimated cone work, where the estimate errs high (it follows the worst cases measured)
-    return Plan("cones", n, parts, steps, steps // 30,
-                f"for {len(parts)} parts up to {_short(max(parts))} by Barvinok's signed cones of the "
-                "simplex {x >= 0 : a.x = n}", lambda: restricted_partitions(n, parts))
+def _cones_plan(n, parts, cheapest):
+    """Barvinok's cones, metered, with `cheapest` (the cheapest other plan, or None) behind them.
+
+    steps: an upper bound of the cones' own work, the allowance they get at most (the cheapest
+    other method's steps, or what the default budget admits); terms: 0 up front, the cones charge
+    the budget as they run."""
+    admitted = _CONE_STEPS_PER_TERM * DEFAULT_LIMITS.terms
+    steps = admitted if cheapest is None else min(cheapest.steps, admitted)
+    what = (f"for {len(parts)} parts up to {_short(max(parts))} by Barvinok's signed cones of the "
+            "simplex {x >= 0 : a.x = n}")
+    return Plan("cones", n, parts, steps, 0, what, lambda limits: _cones_then(n, parts, cheapest, what, limits))
+
+
+def _cones_then(n, parts, cheapest, what, limits: Limits) -> int:
+    """p_A(n) by the cones within an allowance; past it, by `cheapest` if the budget admits it, else refused.
+
+    Allowance: the cheapest other method's steps when the budget admits that method (and what the
+    budget has left beside its charge), else all that the budget admits of cone work."""
+    from .cones import TooCostly, allowance
+    from .ehrhart import CONE_STEP, restricted_partitions
+    admitted = _CONE_STEPS_PER_TERM * limits.terms
+    fallback = cheapest if cheapest is not None and cheapest.terms <= limits.terms else None
+    if fallback is not None:
+        steps = min(fallback.steps, _CONE_STEPS_PER_TERM * (limits.terms - fallback.terms))
+    else:
+        steps = admitted
+    try:
+        return restricted_partitions(n, parts, allowance(steps // CONE_STEP))
+    except TooCostly:
+        pass
+    if fallback is None:
+        cheapest_text = "" if cheapest is None else \
+            f"; the cheapest other method, {cheapest.what}, needs {_short(cheapest.terms)}"
+        raise BudgetExceeded(
+            f"p_A(n) {what} (n = {_short(n)}) needs more than {limits.terms} steps: the cones stopped "
+            f"there{cheapest_text}; over the limit terms = {limits.terms} (raise it with --limit terms=N)")
+    return fallback.run(limits)
 
 
 _METHODS = (_few_plan, _table_plan, _waves_plan, _recursion_plan, _fourier_plan)

@@ -13,7 +13,7 @@ from math import gcd
 
 from .dedekind import dedekind_by_definition
 from .elementary import as_integer
-from .partitions import check_parts, plans
+from .partitions import check_parts, plan, plans
 
 __all__ = ["second_opinion", "fourier_dedekind_by_convolution", "frobenius_by_scan"]
 
@@ -34,11 +34,14 @@ def _partitions(n, parts):
     if not _int(n) or not isinstance(parts, tuple):
         return None
     parts = check_parts(parts, allow_empty=True)
-    # the kernel took the cheapest method; the next cheapest, if it is not too dear, is the second opinion
-    ranked = sorted(plans(n.numerator, parts), key=lambda p: p.steps)
-    if len(ranked) < 2 or ranked[1].steps > max(10**7, 4 * ranked[0].steps):
+    # the kernel took `plan` (the cones when offered, else the cheapest); the cheapest other method, if it
+    # is not too dear, is the second opinion
+    found = plans(n.numerator, parts)
+    first = plan(n.numerator, parts)
+    others = sorted((p for p in found if p.method != first.method), key=lambda p: p.steps)
+    if not others or others[0].steps > max(10**7, 4 * first.steps):
         return None
-    return Fraction(ranked[1].run())
+    return Fraction(others[0].run())
 
 
 def _fourier_dedekind(n, parts, b):

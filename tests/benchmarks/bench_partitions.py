@@ -11,7 +11,7 @@ import sys
 sys.path.insert(0, os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__)))))
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 
-from checker.mathematics import partitions as module  # noqa: E402
+from checker.mathematics import ehrhart, partitions as module  # noqa: E402
 from checker.mathematics.partitions import PartitionQuasiPolynomial, partitions, partitions_by_table, plan  # noqa: E402
 from timing import best_of  # noqa: E402
 
@@ -21,10 +21,11 @@ NEAR_10_9 = [10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33, 10**9 + 87]
 
 
 def cold(fn):
-    """Run fn with the caches of the waves emptied first (a cold build, as in a fresh process)."""
+    """Run fn with the caches of the waves and of the cones emptied first (a cold build, as in a fresh process)."""
     def run():
         PartitionQuasiPolynomial._instances.clear()
         module._QP_COSTS.clear()
+        ehrhart._CONES.clear()
         return fn()
     return run
 
@@ -64,8 +65,9 @@ def main(quick=False):
         show("3 parts near 10^6", n, NEAR_10_6[:3])
     show("3 parts near 10^9", 10**30, NEAR_10_9[:3])
     show("3 parts near 10^30", 10**100, [10**30 + 1, 10**30 + 3, 10**30 + 7])
-    print(" four and five parts: recursion over the largest parts while n / part is small,"
-          " Fourier-Dedekind sums modulo each part or Barvinok's cones of the simplex otherwise (cheapest estimate)")
+    print(" four and five parts: recursion over the largest parts while n / part is small, Fourier-Dedekind"
+          " sums modulo each part otherwise; Barvinok's cones of the simplex first (metered, giving way past"
+          " the other method's cost) when every other method costs 10^7 steps or more")
     for k in (4, 5):
         show(f"{k} parts near 10^4", 10**30, NEAR_10_4[:k], waves(10**30, NEAR_10_4[:k]), "waves")
     show("4 parts near 10^6", 10**7, NEAR_10_6[:4], lambda: partitions_by_table(10**7, NEAR_10_6[:4]), "table")

@@ -157,16 +157,102 @@ def test_extended_below_the_threshold_by_reciprocity():
 
 def test_budget_refuses_with_the_estimate():
     spec = REGISTRY["partitions"]
-    big = tuple(Fraction(10**9 + k) for k in (0, 1, 3, 7, 9, 13))
+    big = tuple(Fraction(10**9 + 2 * k + 1) for k in range(13))
     with pytest.raises(BudgetExceeded) as info:
         spec.call((Fraction(10**30), big), DEFAULT_LIMITS)
     message = info.value.message
-    # the cheapest estimate names its method (six parts of 10^9: every method is over the budget)
-    assert message.startswith("p_A(n) for 6 ") and "parts up to 1000000013" in message
+    # the cheapest estimate names its method (13 parts of 10^9: more than the cones are offered for,
+    # and every other method is over the budget), refused before any work
+    assert message.startswith("p_A(n) by a table of ") and "for 13 parts" in message
+    assert "parts up to 1000000025" in message
     assert "over the limit terms = 3000000" in message and "--limit terms=N" in message
     # three parts of any size cost nothing worth counting
     value = spec.call((Fraction(10**30), big[:3]), DEFAULT_LIMITS)
-    assert value == three_parts(10**30, 10**9, 10**9 + 1, 10**9 + 3)
+    assert value == three_parts(10**30, 10**9 + 1, 10**9 + 3, 10**9 + 5)
+
+
+NEAR_A_MILLION = (999983, 1000003, 999979, 1000033, 1000037)
+
+
+def _forbid(monkeypatch, *names):
+    """Make the named methods of the partitions module raise, to show that a computation did not use them."""
+    import checker.mathematics.partitions as module
+
+    def refuse(*args, **kwargs):
+        raise AssertionError("this method should not have run")
+    for name in names:
+        monkeypatch.setattr(module, name, refuse)
+
+
+def test_cones_compute_five_parts_near_a_million_within_the_default_budget(monkeypatch):
+    from checker.mathematics import ehrhart
+    n = 10**30
+    # independent value: the Fourier-Dedekind decomposition (Gessel 1997; shares nothing with the cones)
+    expected = partitions_by_fourier_dedekind(n, sorted(NEAR_A_MILLION))
+    ehrhart._CONES.clear()
+    assert plan(n, NEAR_A_MILLION).method == "cones"
+    # the Fourier-Dedekind method alone would cost 2 10^7 terms, over the default budget; the cones
+    # are metered and need a small part of it
+    assert plan_named("Fourier-Dedekind", n, NEAR_A_MILLION).terms > DEFAULT_LIMITS.terms
+    _forbid(monkeypatch, "partitions_by_fourier_dedekind", "partitions_by_table", "_by_recursion")
+    value = REGISTRY["partitions"].call((Fraction(n), tuple(map(Fraction, NEAR_A_MILLION))), DEFAULT_LIMITS)
+    assert value == expected
+
+
+def test_six_parts_near_a_billion_by_the_cones():
+    from checker.mathematics import ehrhart
+    parts = tuple(10**9 + k for k in (0, 1, 3, 7, 9, 13))
+    assert plan(10**30, parts).method == "cones"
+    value = REGISTRY["partitions"].call((Fraction(10**30), tuple(map(Fraction, parts))), DEFAULT_LIMITS)
+    assert value > 0
+    # the same decomposition serves every n: at n = 3 10^10 + 7 against the recursion over the three
+    # largest parts (Popoviciu's formula for the rest), which shares nothing with the cones
+    n = 3 * 10**10 + 7
+    assert ehrhart.restricted_partitions(n, parts) == plan_named("recursion", n, parts).run()
+
+
+def test_cones_over_their_allowance_give_way_and_leave_nothing_behind(monkeypatch):
+    from checker.mathematics import ehrhart
+    from checker.mathematics.cones import TooCostly, allowance
+    # four pairwise coprime parts near 10^6 at n = 10^30: the cones need about 10^6 steps, the Fourier-Dedekind
+    # sums 4.8 10^7 (1.2 10^7 terms).  With a budget of 1000 terms more than those, the cones get an allowance
+    # of 30000 steps, stop there, and the Fourier-Dedekind sums answer
+    parts, n = NEAR_A_MILLION[:4], 10**30
+    first, fourier = plan(n, parts), plan_named("Fourier-Dedekind", n, parts)
+    assert first.method == "cones" and first.steps == fourier.steps
+    tight = DEFAULT_LIMITS.with_overrides({"terms": fourier.terms + 1000})
+    simplex = ehrhart._simplex_of_parts(tuple(sorted(parts)))
+    ehrhart._CONES.clear()
+    with pytest.raises(TooCostly):
+        ehrhart.restricted_partitions(n, sorted(parts), allowance(100))
+    assert simplex not in ehrhart._CONES                 # nothing half-built is kept
+    value = REGISTRY["partitions"].call((Fraction(n), tuple(map(Fraction, parts))), tight)
+    assert simplex not in ehrhart._CONES                 # the cones stopped again: the Fourier-Dedekind sums answered
+    # independent value: the cones themselves, unmetered, built afresh (Barvinok; shares nothing with Gessel's
+    # decomposition), which must not have been disturbed by the attempts that stopped
+    assert value == ehrhart.restricted_partitions(n, sorted(parts))
+    assert simplex in ehrhart._CONES
+    # a budget of 100 terms: no other method fits, and the cones refuse once they spend it
+    with pytest.raises(BudgetExceeded):
+        REGISTRY["partitions"].call((Fraction(n), tuple(map(Fraction, parts))),
+                                    DEFAULT_LIMITS.with_overrides({"terms": 100}))
+    ehrhart._CONES.clear()
+
+
+def test_cones_refuse_clearly_when_no_method_fits_the_budget():
+    from checker.mathematics import ehrhart
+    # five parts at random near 10^9 (the hostile input of tests/replay): the decomposition takes some
+    # 15 s; with a budget of 30000 terms the cones stop after 9 10^5 steps and refuse, and nothing is kept
+    parts = (760802823, 806340495, 811423016, 1066917336, 5554647846)
+    small = DEFAULT_LIMITS.with_overrides({"terms": 30000})
+    ehrhart._CONES.clear()
+    with pytest.raises(BudgetExceeded) as info:
+        REGISTRY["partitions"].call((Fraction(10**30), tuple(map(Fraction, parts))), small)
+    message = info.value.message
+    assert message.startswith("p_A(n) for 5 parts up to 5554647846 by Barvinok's signed cones")
+    assert "needs more than 30000 steps" in message and "the cheapest other method, by a table" in message
+    assert "over the limit terms = 30000" in message and "--limit terms=N" in message
+    assert ehrhart._simplex_of_parts(tuple(sorted(parts))) not in ehrhart._CONES
 
 
 def test_cones_against_recursion_and_fourier_dedekind():
@@ -178,5 +264,5 @@ def test_cones_against_recursion_and_fourier_dedekind():
     for parts in ((9973, 10007, 9967, 10009), (101, 9973, 10007, 9967, 10037)):
         for n in (10**30 + 7, 10**6 + 1, sum(parts)):
             assert restricted_partitions(n, parts) == partitions_by_fourier_dedekind(n, parts)
-    # four parts of a billion at n = 10^30 now fit the default budget, by the cones
+    # four parts of a billion at n = 10^30 fit the default budget, by the cones
     assert plan(10**30, (10**9 + 7, 10**9 + 9, 10**9 + 21, 10**9 + 33)).method == "cones"

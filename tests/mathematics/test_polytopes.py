@@ -309,13 +309,17 @@ def test_unbounded_input_is_refused_with_a_direction():
 
 def test_costly_requests_are_refused_not_hung():
     tight = Limits(terms=1000)
-    # D = 997 * 991: enumeration and interpolation are far over budget, Barvinok's cones are not.
+    # D = 997 * 991: enumeration and interpolation are far over budget, Barvinok's cones are not (about 820
+    # cone steps, charged ehrhart.CONE_TERMS = 5 terms each since the cones are metered to stop promptly).
     # Points of [0, 1003]^4 with sum <= 1009, by inclusion-exclusion (common practice).
     corner = box(4, 0, Fraction(1, 997)) + [(1, 1, 1, 1, Fraction(1, 991))]
-    assert lattice_points_inequalities(10**6, corner, limits=tight) == comb(1013, 4) - 4 * comb(9, 4)
+    assert lattice_points_inequalities(10**6, corner, limits=Limits(terms=5000)) == comb(1013, 4) - 4 * comb(9, 4)
     ehrhart._CONES.clear()
     with pytest.raises(BudgetExceeded, match="terms"):
         lattice_points_inequalities(10**6, corner, limits=Limits(terms=200))
+    with pytest.raises(BudgetExceeded, match="terms"):
+        lattice_points_inequalities(10**6, corner, limits=tight)
+    assert polytope_of_inequalities(corner) not in ehrhart._CONES      # a stopped decomposition leaves nothing
     with pytest.raises(BudgetExceeded, match="terms"):
         lattice_points_inequalities(60, unit_cube(6) + [(1, -1, 1, -1, 1, -1, Fraction(1, 7))], limits=tight)
 

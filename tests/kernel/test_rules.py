@@ -259,3 +259,35 @@ def test_descent_in_a_chain_and_in_a_lemma():
                         "    = (k - 1)*(k - 2)/(12*k) - dedekind(0, 1)    by descent\n"
                         "end\n")
     assert not report.ok and "descent has no form for calls with parameters" in " ".join(report.failure.details)
+
+
+@pytest.mark.parametrize("rule", ["descent", "reduce"])
+def test_many_calls_with_many_choices_stop_at_the_candidate_cap(rule, monkeypatch):
+    # Each of 40 calls of the previous line may become any of 40 calls of the next line (by
+    # descent: Fibonacci pairs (F(n), F(n+1)) descend through every smaller one; by reduce:
+    # 1 + 5 i = 1 + 5 j (mod 5)).  The 1600 lines of 80 calls that this offers once took
+    # memory cubic in the number of calls (a 130 KB certificate: about 10 GB); the lines are
+    # now kept as they are made, up to the cap, the same first ones as before.
+    from checker.kernel import verdicts
+    from checker.kernel.normal import atom_nf, add
+    fib = [0, 1]
+    while len(fib) < 100:
+        fib.append(fib[-1] + fib[-2])
+    if rule == "descent":        # from memory: s(F(n), F(n+1)) -> s(F(n-1), F(n)) by one step
+        before = [(fib[n], fib[n + 1]) for n in range(45, 85)]
+        after = [(fib[m], fib[m + 1]) for m in range(2, 42)]
+    else:
+        before = [(1 + 5 * i, 5) for i in range(40)]
+        after = [(1 + 5 * j, 5) for j in range(40, 80)]
+    def line(pairs):
+        out = {}
+        for h, k in pairs:
+            out = add(out, atom_nf(("dedekind", (F(h), F(k)))))
+        return out
+    made = []
+    real = verdicts.substitute
+    monkeypatch.setattr(verdicts, "substitute", lambda *a: made.append(1) or real(*a))
+    verdict = verdicts.check_step(line(before), line(after), [(rule, None)], None, {}, DEFAULT_LIMITS)
+    assert not verdict.rule_ok
+    assert len(verdict.candidates) == verdicts._MAX_CANDIDATES
+    assert len(made) <= verdicts._MAX_CANDIDATES

@@ -27,6 +27,7 @@ from ..mathematics.elementary import sawtooth
 from ..mathematics.fourier_dedekind_reciprocity import (bridge_constant, coprimality_problem, poly_at,
                                                         polynomial_part_cost, reciprocity_range_problem)
 from ..foundation.errors import RuleRefused
+from ..foundation.limits import check_time
 from .normal import LONG_BITS, NF, add, atom_nf, atom_text, constant, mul, scale
 from .ratios import Ratio, long_integer
 from ..foundation.numbers import value_text
@@ -559,6 +560,7 @@ def _three_term(atom, target, limits):
     others = [(y, b) for y, b in _target_dedekind(target) if (y, b) != (x, a)]
     out, reasons = [], []
     for i, (y, b) in enumerate(others):
+        check_time()                  # pairs of the next line's calls: quadratic in them
         for z, c in others:
             if (z, c) == (y, b):
                 continue

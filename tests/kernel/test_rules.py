@@ -291,3 +291,16 @@ def test_many_calls_with_many_choices_stop_at_the_candidate_cap(rule, monkeypatc
     assert not verdict.rule_ok
     assert len(verdict.candidates) == verdicts._MAX_CANDIDATES
     assert len(made) <= verdicts._MAX_CANDIDATES
+
+
+def test_three_term_watches_the_clock(monkeypatch):
+    # its search over pairs of the next line's calls is quadratic in them: it must meet the
+    # `seconds` limit inside (400 calls a side ran for minutes past it)
+    from checker.foundation.errors import OutOfTime
+    from checker.kernel import rules
+    def out_of_time():
+        raise OutOfTime("out of time")
+    monkeypatch.setattr(rules, "check_time", out_of_time)
+    target = [("dedekind", (F(1), F(3))), ("dedekind", (F(2), F(5)))]
+    with pytest.raises(OutOfTime):
+        rewrite("three_term", ("dedekind", (F(1), F(7))), target)

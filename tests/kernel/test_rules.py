@@ -304,3 +304,26 @@ def test_three_term_watches_the_clock(monkeypatch):
     target = [("dedekind", (F(1), F(3))), ("dedekind", (F(2), F(5)))]
     with pytest.raises(OutOfTime):
         rewrite("three_term", ("dedekind", (F(1), F(7))), target)
+
+
+from checker.foundation.numbers import int_text as _d
+_H, _K, _G, _G2 = map(_d, (3 ** 9500, 2 ** 16000 + 1, 2 ** 15000, 2 ** 15001))   # 4500-4900 digits
+
+
+@pytest.mark.parametrize("start, line, rules", [
+    (f"dedekind({_H}, {_K})", f"dedekind({_H}, {_K}) + 0", "reduce"),
+    (f"dedekind(1, {_K})", "0", "definition"),
+    (f"dedekind({_G}, {_G2})", "0", "reciprocity"),
+    (f"dedekind(-{_H}, {_K})", "0", "reciprocity"),
+    (f"dedekind({_H}, {_K})", "dedekind(5, 1)", "descent"),
+    (f"dedekind({_G}, {_G2})", "dedekind(5, 1)", "descent"),
+    (f"dedekind(-{_H}, {_K})", "dedekind(5, 1)", "descent"),
+    (f"dedekind({_G}, {_G2})", "dedekind(5, 1)", "inverse"),
+    (f"dedekind({_H}, {_K})", "dedekind(5, 1)", "common_factor"),
+    (f"dedekind({_H}, {_K})", f"dedekind(5, {_G}) + dedekind(1, {_G2})", "three_term"),
+], ids=lambda x: x if x.isidentifier() else "")
+def test_refusals_about_numbers_past_4300_digits_are_failures_not_crashes(start, line, rules):
+    # str() of an int past 4300 digits raises ValueError (CPython's default limit): the messages
+    # write numbers with value_text, every digit (the report abbreviates them)
+    report = check_text(f"chain {start}\n  = {line}    by {rules}\n")
+    assert not report.ok and report.failure.kind in ("failed", "limit"), report.failure

@@ -15,6 +15,8 @@ from math import gcd
 
 from ..foundation.errors import DomainError
 from ..kernel.evaluation import Evaluator
+from ..kernel.ratios import long_integer
+from ..mathematics.dedekind import reciprocity_descent
 from ..language.expressions import Call
 from ..foundation.numbers import value_text
 from ..language.parsing import parse_expression
@@ -66,34 +68,49 @@ def _euclid_lines(h: int, k: int, offset: Fraction = Fraction(0), outer: int = 1
     if not 0 <= h < k:
         h %= k
         out.append(f"  = {line(Fraction(0), 1, h, k)}    by reduce")
-    # the pairs met by reciprocity followed by reduce: (h, k) -> (k mod h, h)
-    chain = [(h, k)]
-    while chain[-1][0]:
-        a, b = chain[-1]
-        chain.append((b % a, a))
-    # T(a, b) = 12 b s(a, b), from the bottom (0, 1) up: reciprocity gives
-    # a T(a, b) = a^2 + b^2 + 1 - 3ab - b T(b mod a, a), an exact integer division
-    twelve = {}
-    below = 0
-    for a, b in reversed(chain):
-        below = 0 if a == 0 else (a * a + b * b + 1 - 3 * a * b - b * below) // a
-        twelve[(a, b)] = below
-    k0 = chain[0][1]
-    total = twelve[chain[0]]                      # 12 k0 s(h, k)
-    steps = len(chain) - 1
+    # the pairs met by reciprocity followed by reduce: (h, k) -> (k mod h, h), kept only at the
+    # lines (all of them take about 0.6 b^2 bits for b-bit numbers: 2 GB at 50,000 digits)
+    steps = _walk_length(h, k)
     per_line = steps_per_line(steps) if per_line is None else per_line
     if per_line < 1:
         raise DomainError(f"a chain line takes at least one step, not {per_line}")
-    for i in list(range(per_line, steps, per_line)) + ([steps] if steps else []):
-        a, b = chain[i]
+    at = list(range(per_line, steps, per_line)) + ([steps] if steps else [])
+    pairs = _pairs_at(h, k, at)
+    # s(h, k) = n / (12 k b) + (-1)^i s(a, b) at the i-th pair (a, b): the constants of the rule
+    # descent, summed in integers along the walk (reciprocity_descent)
+    constants = {(a, b): n for a, b, n, _ in reciprocity_descent(h, k, set(pairs))} if steps else {}
+    for i, (a, b) in zip(at, pairs):
         sign = -1 if i % 2 else 1
-        # the line c + sign * s(a, b) keeps the value: c = s(h, k) - sign * s(a, b)
-        c = Fraction(total * b - sign * k0 * twelve[(a, b)], 12 * k0 * b)
+        c = Fraction(constants[(a, b)], 12 * k * b)     # s(h, k) - sign * s(a, b)
         taken = i - (i - 1) // per_line * per_line
         rules = "reciprocity, reduce" if taken == 1 else "descent"
         out.append(f"  = {line(c, sign, a, b)}    by {rules}")
-    value = offset + outer * Fraction(total, 12 * k0)
+    total = constants[(0, 1)] if steps else 0    # 12 k s(h, k): the last pair is (0, 1)
+    value = offset + outer * Fraction(total, 12 * k)
     out.append(f"  = {value_text(value)}    by value")
+    return out
+
+
+def _walk_length(h: int, k: int) -> int:
+    """The steps (a, b) -> (b mod a, a) from (h, k) down to a = 0."""
+    a, b = long_integer(h), long_integer(k)
+    steps = 0
+    while a:
+        a, b = b % a, a
+        steps += 1
+    return steps
+
+
+def _pairs_at(h: int, k: int, indices: list) -> list:
+    """The pairs that the steps (a, b) -> (b mod a, a) reach from (h, k) after each of the
+    increasing step counts `indices`."""
+    a, b = long_integer(h), long_integer(k)
+    out, step = [], 0
+    for i in indices:
+        while step < i:
+            a, b = b % a, a
+            step += 1
+        out.append((int(a), int(b)))
     return out
 
 

@@ -30,6 +30,11 @@ _MEMO_SIZE = 400_000
 _LIST_FOR_NUMBER = "a list stands where a number is needed"
 _TOO_DEEP = "the expression is nested too deeply to evaluate"
 _EUCLID_MEMO_BITS = 256     # from this size on, one pass fills every pair of a reciprocity chain
+# ... and up to this one: a pass keeps every pair of Euclid's walk, about 0.6 b^2 bits for b-bit
+# numbers (2 GB at 50,000 digits, 30 GB at the 200,000 digits a literal may have), while a chain
+# within the file-size limit has few lines once its numbers are this long (a line a step stops
+# near 3,000 digits; derive writes about 100), and the kernel's O(log k) algorithm serves them
+_EUCLID_PASS_MAX_BITS = 1 << 15
 
 
 class Evaluator:
@@ -309,7 +314,7 @@ class Evaluator:
                 or not all(isinstance(a, Fraction) and a.denominator == 1 for a in args):
             return None
         h, k = args[0].numerator, args[1].numerator
-        if k < 1 or k.bit_length() < _EUCLID_MEMO_BITS:
+        if k < 1 or not _EUCLID_MEMO_BITS <= k.bit_length() <= _EUCLID_PASS_MAX_BITS:
             return None
         # the pass's keys are coprime pairs (h mod k, k), so a key met as it is needs no gcd
         pair = (h % k, k)

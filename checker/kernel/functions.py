@@ -29,6 +29,7 @@ from ..mathematics.fourier_dedekind_reciprocity import by_reciprocity, polynomia
 from ..mathematics.residues import jacobi as _jacobi, reciprocal_mod as _reciprocal_mod
 from ..mathematics.frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from ..foundation.limits import Limits
+from ..foundation.numbers import value_text
 from ..mathematics.periodic import constituents, periodic
 from ..mathematics.ehrhart import budget as _budget, hstar as _hstar
 from ..mathematics.elementary import as_integer as _as_integer
@@ -212,7 +213,7 @@ def _list_len(x) -> int:
 def _cost_bernoulli(n, x=None):
     if x is None and isinstance(n, Fraction) and n.denominator == 1 and n > 1 and n.numerator % 2:
         return None      # B_n = 0 for odd n > 1: no work at any size
-    return ("bernoulli_index", _int_or_zero(n), f"a Bernoulli number of index {_int_or_zero(n)}")
+    return ("bernoulli_index", _int_or_zero(n), f"a Bernoulli number of index {value_text(_int_or_zero(n))}")
 
 
 def _cost_linear(k, what):
@@ -222,11 +223,11 @@ def _cost_linear(k, what):
 def _cost_generalized(p, h, k):
     p, k = _int_or_zero(p), _int_or_zero(k)
     if p > 4000:
-        return ("bernoulli_index", p, f"a generalized Dedekind sum of order {p}")
+        return ("bernoulli_index", p, f"a generalized Dedekind sum of order {value_text(p)}")
     if p % 2 == 1 and k >= 1 and math_gcd(_int_or_zero(h), k) == 1:
         # Apostol's reciprocity along Euclid's chain: O(log k) steps of O(p) products
-        return ("terms", p * p * max(1, k.bit_length()), f"Apostol's reciprocity at order {p}")
-    return ("terms", k * max(p, 1), f"summing {k} terms of order {p}")
+        return ("terms", p * p * max(1, k.bit_length()), f"Apostol's reciprocity at order {value_text(p)}")
+    return ("terms", k * max(p, 1), f"summing {value_text(k)} terms of order {value_text(p)}")
 
 
 def _cost_fourier(n, parts, b):

@@ -27,6 +27,7 @@ from ..mathematics.elementary import sawtooth
 from ..mathematics.fourier_dedekind_reciprocity import (bridge_constant, coprimality_problem, poly_at,
                                                         polynomial_part_cost, reciprocity_range_problem)
 from ..foundation.errors import RuleRefused
+from ..foundation.limits import check_time
 from .normal import LONG_BITS, NF, add, atom_nf, atom_text, constant, mul, scale
 from .ratios import Ratio, long_integer
 from ..foundation.numbers import value_text
@@ -55,6 +56,12 @@ WHOLE_LINE_RULES = {
 }
 
 
+def _t(x) -> str:
+    """A number (or a list of them) in a message: every digit, at any length (str() of an int
+    past 4300 digits raises ValueError)."""
+    return value_text(list(x) if isinstance(x, (list, tuple)) else x)
+
+
 def _refuse(msg: str):
     raise RuleRefused(msg)
 
@@ -79,7 +86,7 @@ def _call(name, *args) -> NF:
 def _dedekind_args(atom):
     h, k = _integers(atom, ("h", "k"))
     if k < 1:
-        _refuse(f"dedekind(h, k) needs k >= 1, not {k}")
+        _refuse(f"dedekind(h, k) needs k >= 1, not {_t(k)}")
     return h, k
 
 
@@ -99,13 +106,13 @@ def _reduce(atom, target, limits):
         if not 0 <= h < k:
             choices.add(h % k)
         if not choices:
-            _refuse(f"dedekind({h}, {k}) is already reduced (0 <= h < k), and the next line has no "
-                    f"dedekind(h', {k}) with h' = {h} (mod {k})")
+            _refuse(f"dedekind({_t(h)}, {_t(k)}) is already reduced (0 <= h < k), and the next line has no "
+                    f"dedekind(h', {_t(k)}) with h' = {_t(h)} (mod {_t(k)})")
         return [_call("dedekind", x, k) for x in sorted(choices)]
     if name == "generalized_dedekind":
         p, h, k = _integers(atom, ("order", "h", "k"))
         if k < 1:
-            _refuse(f"generalized_dedekind needs k >= 1, not {k}")
+            _refuse(f"generalized_dedekind needs k >= 1, not {_t(k)}")
         return [_call(name, p, h % k, k)]
     if name == "fourier_dedekind":
         (n, b) = _integers((name, (args[0], args[2])), ("n", "b"))
@@ -133,7 +140,7 @@ def _require_coprime(h: int, k: int) -> None:
         return
     g = gcd(h, k)
     if g != 1:
-        _refuse(f"reciprocity needs coprime h and k, but gcd({h}, {k}) = {g}")
+        _refuse(f"reciprocity needs coprime h and k, but gcd({_t(h)}, {_t(k)}) = {_t(g)}")
     _remember_coprime(k % h, h)
 
 
@@ -154,7 +161,7 @@ def _reciprocity(atom, target, limits):
     if name == "dedekind":
         h, k = _dedekind_args(atom)
         if h < 1:
-            _refuse(f"reciprocity needs h >= 1 and k >= 1, but h = {h} (use reduce or negate first)")
+            _refuse(f"reciprocity needs h >= 1 and k >= 1, but h = {_t(h)} (use reduce or negate first)")
         _require_coprime(h, k)
         if max(h.bit_length(), k.bit_length()) <= LONG_BITS:
             right = reciprocity_term(h, k)
@@ -166,12 +173,12 @@ def _reciprocity(atom, target, limits):
     if name == "generalized_dedekind":
         p, h, k = _integers(atom, ("order", "h", "k"))
         if p < 1 or p % 2 == 0:
-            _refuse(f"Apostol's reciprocity needs an odd order p >= 1, not {p}")
+            _refuse(f"Apostol's reciprocity needs an odd order p >= 1, not {_t(p)}")
         if h < 1 or k < 1:
-            _refuse(f"reciprocity needs h >= 1 and k >= 1, not h = {h}, k = {k}")
+            _refuse(f"reciprocity needs h >= 1 and k >= 1, not h = {_t(h)}, k = {_t(k)}")
         g = gcd(h, k)
         if g != 1:
-            _refuse(f"reciprocity needs coprime h and k, but gcd({h}, {k}) = {g}")
+            _refuse(f"reciprocity needs coprime h and k, but gcd({_t(h)}, {_t(k)}) = {_t(g)}")
         # (p+1)(h k^p s_p(h,k) + k h^p s_p(k,h)) = R
         lead = Fraction((p + 1) * h * k ** p)
         other = scale(_call(name, p, k, h), Fraction(-(p + 1) * k * h ** p) / lead)
@@ -191,7 +198,7 @@ def _descent(atom, target, limits):
     _only(atom, "dedekind")
     h, k = _dedekind_args(atom)
     if h < 1:
-        _refuse(f"descent needs h >= 1 and k >= 1, but h = {h} (use reduce or negate first)")
+        _refuse(f"descent needs h >= 1 and k >= 1, but h = {_t(h)} (use reduce or negate first)")
     try:
         _require_coprime(h, k)
     except RuleRefused as e:
@@ -200,7 +207,7 @@ def _descent(atom, target, limits):
     found = reciprocity_descent(h, k, wanted) if wanted else []
     if not found:
         _refuse(f"the next line has no dedekind(a, b) at a pair that reciprocity and reduce reach from "
-                f"({h}, {k}); they go {_first_pairs(h, k)}")
+                f"({_t(h)}, {_t(k)}); they go {_first_pairs(h, k)}")
     out = []
     for a, b, n, sign in found:
         if a >= 1:                        # gcd(a, b) = gcd(h, k): the next line may use it
@@ -228,10 +235,10 @@ def _rademacher_reciprocity(atom) -> NF:
     if isinstance(x, tuple) or isinstance(y, tuple):
         _refuse("dedekind_rademacher(h, k, x, y) needs rational x and y")
     if h < 1 or k < 1:
-        _refuse(f"reciprocity needs h >= 1 and k >= 1, not h = {h}, k = {k}")
+        _refuse(f"reciprocity needs h >= 1 and k >= 1, not h = {_t(h)}, k = {_t(k)}")
     g = gcd(h, k)
     if g != 1:
-        _refuse(f"reciprocity needs coprime h and k, but gcd({h}, {k}) = {g}")
+        _refuse(f"reciprocity needs coprime h and k, but gcd({_t(h)}, {_t(k)}) = {_t(g)}")
     if x.denominator == 1 and y.denominator == 1:
         right = reciprocity_term(h, k)
     else:
@@ -265,7 +272,7 @@ def _parts_args(atom):
 def _coprime_parts(parts, what):
     why = coprimality_problem(parts)
     if why:
-        _refuse(f"{what} needs pairwise coprime positive parts A = {list(parts)}: {why}")
+        _refuse(f"{what} needs pairwise coprime positive parts A = {_t(list(parts))}: {why}")
 
 
 def _same_multiset(xs, ys) -> bool:
@@ -384,7 +391,7 @@ def _decompose(atom, target, limits):
         _refuse("the list of parts must not be empty")
     _coprime_parts(A, "the decomposition of p_A")
     if atom[0] == "partitions" and n <= -sum(A):
-        _refuse(f"the decomposition of p_A(n) holds for n > -(a1 + ... + ad) = {-sum(A)}, not at n = {n} "
+        _refuse(f"the decomposition of p_A(n) holds for n > -(a1 + ... + ad) = {_t(-sum(A))}, not at n = {_t(n)} "
                 "(partitions_extended obeys it everywhere)")
     out = []
     for poly in _polynomial_part_forms(n, A, target, limits):
@@ -410,7 +417,7 @@ def _compose(atom, target, limits):
             n, whole = _parts_args(a)
             _coprime_parts(whole, "the decomposition of p_A")
             if a[0] == "partitions" and n <= -sum(whole):
-                _refuse(f"the decomposition of p_A(n) holds for n > {-sum(whole)}, not at n = {n}")
+                _refuse(f"the decomposition of p_A(n) holds for n > {_t(-sum(whole))}, not at n = {_t(n)}")
         except RuleRefused as e:
             reasons.append(e.message)
             continue
@@ -423,7 +430,7 @@ def _compose(atom, target, limits):
     if not out:
         _refuse(reasons[0] if reasons else
                 f"read backwards, the decomposition turns {atom_text(atom)} into p_A(n) minus the rest, "
-                f"but the next line has no partitions({-m}, A) with A = {sorted(A)} in some order")
+                f"but the next line has no partitions({_t(-m)}, A) with A = {_t(sorted(A))} in some order")
     return out
 
 
@@ -440,12 +447,12 @@ def _bridge_problem(n, parts, b) -> str:
     if len(parts) != 2:
         return f"the bridge needs a list of two entries [a, c], not {len(parts)}"
     if b < 1:
-        return f"the bridge needs b >= 1, not {b}"
+        return f"the bridge needs b >= 1, not {_t(b)}"
     if n % b:
-        return f"the bridge is for s_0 (n = 0 mod b), but n = {n} is not 0 mod {b}"
+        return f"the bridge is for s_0 (n = 0 mod b), but n = {_t(n)} is not 0 mod {_t(b)}"
     for x in parts:
         if gcd(x, b) != 1:
-            return f"the bridge needs a and c coprime to b, but gcd({x}, {b}) = {gcd(x, b)}"
+            return f"the bridge needs a and c coprime to b, but gcd({_t(x)}, {_t(b)}) = {_t(gcd(x, b))}"
     return ""
 
 
@@ -483,15 +490,15 @@ def _bridge_backward(atom, target):
             continue
         why = _bridge_problem(n, parts, bb)
         if not why and not _bridge_fits(x, parts[0], parts[1], b):
-            why = (f"dedekind({x}, {b}) is not s(a c', b) for [a, c] = {parts}: {x}*{parts[1]} is not "
-                   f"{parts[0]} mod {b} (nor {x}*{parts[0]} = {parts[1]})")
+            why = (f"dedekind({_t(x)}, {_t(b)}) is not s(a c', b) for [a, c] = {_t(parts)}: {_t(x)}*{_t(parts[1])} is not "
+                   f"{_t(parts[0])} mod {_t(b)} (nor {_t(x)}*{_t(parts[0])} = {_t(parts[1])})")
         if why:
             reasons.append(why)
             continue
         out.append(add(constant(bridge_constant(b)), scale(atom_nf(other), Fraction(-1))))
     if not out:
         _refuse(reasons[0] if reasons else
-                f"read backwards, the bridge needs fourier_dedekind(0, [a, c], {b}) in the next line")
+                f"read backwards, the bridge needs fourier_dedekind(0, [a, c], {_t(b)}) in the next line")
     return out
 
 
@@ -525,7 +532,7 @@ def _inverse(atom, target, limits):
     h, k = _dedekind_args(atom)
     g = gcd(h, k)
     if g != 1:
-        _refuse(f"inverse needs h coprime to k, but gcd({h}, {k}) = {g}")
+        _refuse(f"inverse needs h coprime to k, but gcd({_t(h)}, {_t(k)}) = {_t(g)}")
     choices = {pow(h, -1, k) if k > 1 else 0}
     for x, y in _target_dedekind(target):
         if y == k and (x * h - 1) % k == 0:
@@ -546,7 +553,7 @@ def _common_factor(atom, target, limits):
         if y >= 1 and (x, y) != (h, k) and x * k == h * y and (k % y == 0 or y % k == 0):
             out.append(_call("dedekind", x, y))
     if not out:
-        _refuse(f"dedekind({h}, {k}) has no common factor to cancel, and the next line has no "
+        _refuse(f"dedekind({_t(h)}, {_t(k)}) has no common factor to cancel, and the next line has no "
                 "dedekind(g h, g k) to expand it into")
     return out
 
@@ -559,6 +566,7 @@ def _three_term(atom, target, limits):
     others = [(y, b) for y, b in _target_dedekind(target) if (y, b) != (x, a)]
     out, reasons = [], []
     for i, (y, b) in enumerate(others):
+        check_time()                  # pairs of the next line's calls: quadratic in them
         for z, c in others:
             if (z, c) == (y, b):
                 continue
@@ -581,15 +589,15 @@ def _three_term(atom, target, limits):
 
 def _three_term_mismatch(x, a, y, b, z, c):
     if min(a, b, c) < 1:
-        return f"the three-term law needs a, b, c >= 1 (here {a}, {b}, {c})"
+        return f"the three-term law needs a, b, c >= 1 (here {_t(a)}, {_t(b)}, {_t(c)})"
     for p, q in ((a, b), (b, c), (a, c)):
         if gcd(p, q) != 1:
-            return f"the three-term law needs pairwise coprime a, b, c, but gcd({p}, {q}) = {gcd(p, q)}"
+            return f"the three-term law needs pairwise coprime a, b, c, but gcd({_t(p)}, {_t(q)}) = {_t(gcd(p, q))}"
     checks = ((x, a, b, c, "s(b c*, a)"), (y, b, c, a, "s(c a*, b)"), (z, c, a, b, "s(a b*, c)"))
     for value, m, num, inv_of, label in checks:
         if m > 1 and (value - num * pow(inv_of, -1, m)) % m:
-            return (f"with a, b, c = {a}, {b}, {c} the law needs {label} with first argument "
-                    f"= {num * pow(inv_of, -1, m) % m} (mod {m}), not {value}")
+            return (f"with a, b, c = {_t(a)}, {_t(b)}, {_t(c)} the law needs {label} with first argument "
+                    f"= {_t(num * pow(inv_of, -1, m) % m)} (mod {_t(m)}), not {_t(value)}")
     return None
 
 
@@ -599,7 +607,7 @@ def _by_definition(atom, target, limits):
     name, args = atom
     if name == "dedekind":
         h, k = _dedekind_args(atom)
-        limits.require("definition_terms", k, f"writing dedekind(h, {k}) out by its definition")
+        limits.require("definition_terms", k, f"writing dedekind(h, {_t(k)}) out by its definition")
         total: NF = {}
         for j in range(k):
             total = add(total, mul(_call("sawtooth", Fraction(j, k)), _call("sawtooth", Fraction(h * j, k))))
@@ -609,7 +617,7 @@ def _by_definition(atom, target, limits):
         x, y = args[2], args[3]
         if k < 1 or isinstance(x, tuple) or isinstance(y, tuple):
             _refuse("dedekind_rademacher(h, k, x, y) needs k >= 1 and rational x, y")
-        limits.require("definition_terms", k, f"writing out a sum of {k} terms")
+        limits.require("definition_terms", k, f"writing out a sum of {_t(k)} terms")
         total = {}
         for j in range(k):
             total = add(total, mul(_call("sawtooth", h * (j + y) / k + x), _call("sawtooth", (j + y) / k)))
@@ -618,7 +626,7 @@ def _by_definition(atom, target, limits):
         p, h, k = _integers(atom, ("order", "h", "k"))
         if k < 1 or p < 1:
             _refuse("generalized_dedekind(p, h, k) needs p >= 1 and k >= 1")
-        limits.require("definition_terms", k, f"writing out a sum of {k} terms")
+        limits.require("definition_terms", k, f"writing out a sum of {_t(k)} terms")
         total = {}
         for j in range(1, k):
             total = add(total, scale(_call("periodic_bernoulli", p, Fraction(h * j, k)), Fraction(j, k)))

@@ -99,19 +99,41 @@ class StepVerdict:
     problem: str = ""                                # a whole-line rule's reason
 
 
-def _apply_atom_rule(rewrite, x: NF, target_atoms: set, refusals: list, limit) -> list[NF]:
-    out = []
+class _Candidates:
+    """The distinct lines a rule gives, in the order produced, at most _MAX_CANDIDATES of them.
+
+    Filled as they are made, so that a line of many calls whose rule offers many choices each
+    (reduce or descent towards the many calls of the next line) stops at the cap instead of
+    building every product of the choices first: the same list as cutting it afterwards."""
+
+    def __init__(self):
+        self.items, self._seen = [], set()
+
+    def full(self) -> bool:
+        return len(self.items) >= _MAX_CANDIDATES
+
+    def add(self, x: NF) -> None:
+        key = frozenset(x.items())
+        if key not in self._seen and not self.full():
+            self._seen.add(key)
+            self.items.append(x)
+
+
+def _apply_atom_rule(rewrite, x: NF, target_atoms: set, refusals: list, limit, out: _Candidates) -> None:
     for atom in _in_order(atoms(x)):
+        if out.full():
+            return
         try:
             replacements = rewrite(atom, target_atoms)
         except RuleRefused as e:
             refusals.append((atom, e.message))
             continue
         for r in replacements:
+            if out.full():
+                return
             y = substitute(x, atom, r, limit)
             if y is not None:
-                out.append(y)
-    return out
+                out.add(y)
 
 
 def _in_order(calls: set) -> list:
@@ -196,33 +218,24 @@ def check_step(prev: NF, nxt: NF, rules: list, call, facts: dict, limits,
                     return verdict
                 verdict.problem = why
             return verdict
-        produced = []
+        produced = _Candidates()
         for x in current:
+            if produced.full():
+                break
             if name == "arithmetic":
-                produced.append(x)
+                produced.add(x)
             elif name == "value":
-                produced.extend(_apply_value(x, nxt, call, verdict.refusals))
+                for y in _apply_value(x, nxt, call, verdict.refusals):
+                    produced.add(y)
             else:
-                produced.extend(_apply_atom_rule(lambda a, t: rewrite(name, a, t), x, target_atoms,
-                                                 verdict.refusals, limit))
-        current = _unique(produced)[:_MAX_CANDIDATES]
+                _apply_atom_rule(lambda a, t: rewrite(name, a, t), x, target_atoms,
+                                 verdict.refusals, limit, produced)
+        current = produced.items
         if not current:
             return verdict
     verdict.candidates = current
     verdict.rule_ok = any(c == nxt for c in current)
     return verdict
-
-
-def _unique(xs: list) -> list:
-    if len(xs) < 2:
-        return xs
-    seen, out = set(), []
-    for x in xs:
-        key = frozenset(x.items())
-        if key not in seen:
-            seen.add(key)
-            out.append(x)
-    return out
 
 
 def conclusion_problem(start: NF, end: NF, lhs: NF, rhs: NF) -> str:

@@ -344,9 +344,13 @@ def dedekind_along_euclid(h: int, k: int) -> dict[tuple[int, int], tuple[int, in
     while k > 1:
         pairs.append((h, k))
         h, k = k % h, h
+        if not len(pairs) & 1023:
+            check_time()
     values = {(0, 1): 0}
     below = 0                       # t at the pair below, 12 h s(k mod h, h)
-    for h, k in reversed(pairs):
+    for index, (h, k) in enumerate(reversed(pairs), 1):
+        if not index & 1023:
+            check_time()
         below, rest = divmod(h * h + k * k + 1 - 3 * h * k - k * below, h)
         if rest:
             raise ArithmeticError(f"12 k s(h, k) is not an integer at ({h}, {k})")

@@ -20,6 +20,7 @@ import math
 from fractions import Fraction
 
 from ..foundation.errors import DomainError
+from ..foundation.numbers import value_text
 
 __all__ = ["sawtooth", "floor", "ceil", "frac", "round_half_up", "mod", "gcd", "lcm", "binomial",
            "as_integer", "as_rational", "as_positive"]
@@ -43,14 +44,14 @@ def as_integer(x, what: str = "argument") -> int:
     if isinstance(x, Fraction):
         if x.denominator == 1:
             return x.numerator
-        raise DomainError(f"{what} must be an integer, not {x}")
+        raise DomainError(f"{what} must be an integer, not {value_text(x)}")
     raise DomainError(f"{what} must be an integer, not {_describe(x)}")
 
 
 def as_positive(x, what: str = "argument") -> int:
     n = as_integer(x, what)
     if n < 1:
-        raise DomainError(f"{what} must be a positive integer, not {n}")
+        raise DomainError(f"{what} must be a positive integer, not {value_text(n)}")
     return n
 
 

@@ -543,6 +543,8 @@ class _Replay:
             try:
                 if check_step(prev_nf, next_nf, candidate, self._call, facts, self.limits).rule_ok:
                     return [f"this line does follow by {cited_rules(candidate)}"]
+            except OutOfTime:          # the step has failed already: out of time, stop suggesting
+                return []
             except CertificateError:
                 continue
         return []

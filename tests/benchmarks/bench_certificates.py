@@ -100,7 +100,7 @@ if __name__ == "__main__":
         bench_chain(per_line=1)
         sys.exit()
     bench_many_claims()
-    for digits in (20, 200, 1000):
+    for digits in (20, 200, 1000, 10000):
         bench_derive(digits)
     bench_chain()
     bench_chain(per_line=1)

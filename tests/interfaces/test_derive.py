@@ -87,6 +87,23 @@ def test_round_trip_with_several_steps_a_line():
         assert report.ok, (h, k, per_line, report.failure.message)
 
 
+def test_each_grouped_line_keeps_the_value_by_python_flint():
+    # every line  c +- s(a, b)  equals s(h, k): both sums from python-flint's fmpq.dedekind_sum
+    rng = random.Random(44)
+    for _ in range(30):
+        k = rng.randint(2, 10 ** rng.randint(2, 150))
+        h = rng.randint(1, k - 1)
+        whole = flint_fraction(flint.fmpq.dedekind_sum(h, k))
+        text = derive_dedekind(h, k, per_line=rng.choice([2, 5, 13]))
+        for line in text.splitlines()[3:-1]:
+            m = re.fullmatch(r"  = (?:(-?\d+(?:/\d+)?) ([+-]) )?(-?)dedekind\((\d+), (\d+)\)    by .*", line)
+            c = Fraction(m.group(1)) if m.group(1) else Fraction(0)
+            sign = -1 if (m.group(2) == "-" or m.group(3) == "-") else 1
+            a, b = int(m.group(4)), int(m.group(5))
+            assert c + sign * flint_fraction(flint.fmpq.dedekind_sum(a, b)) == whole, line
+        assert text.splitlines()[-1] == f"  = {whole}    by value"
+
+
 def test_a_long_chain_is_written_in_about_a_hundred_lines():
     rng = random.Random(1)
     k = rng.randint(10 ** 999, 10 ** 1000)

@@ -259,3 +259,73 @@ def test_descent_in_a_chain_and_in_a_lemma():
                         "    = (k - 1)*(k - 2)/(12*k) - dedekind(0, 1)    by descent\n"
                         "end\n")
     assert not report.ok and "descent has no form for calls with parameters" in " ".join(report.failure.details)
+
+
+@pytest.mark.parametrize("rule", ["descent", "reduce"])
+def test_many_calls_with_many_choices_stop_at_the_candidate_cap(rule, monkeypatch):
+    # Each of 40 calls of the previous line may become any of 40 calls of the next line (by
+    # descent: Fibonacci pairs (F(n), F(n+1)) descend through every smaller one; by reduce:
+    # 1 + 5 i = 1 + 5 j (mod 5)).  The 1600 lines of 80 calls that this offers once took
+    # memory cubic in the number of calls (a 130 KB certificate: about 10 GB); the lines are
+    # now kept as they are made, up to the cap, the same first ones as before.
+    from checker.kernel import verdicts
+    from checker.kernel.normal import atom_nf, add
+    fib = [0, 1]
+    while len(fib) < 100:
+        fib.append(fib[-1] + fib[-2])
+    if rule == "descent":        # from memory: s(F(n), F(n+1)) -> s(F(n-1), F(n)) by one step
+        before = [(fib[n], fib[n + 1]) for n in range(45, 85)]
+        after = [(fib[m], fib[m + 1]) for m in range(2, 42)]
+    else:
+        before = [(1 + 5 * i, 5) for i in range(40)]
+        after = [(1 + 5 * j, 5) for j in range(40, 80)]
+    def line(pairs):
+        out = {}
+        for h, k in pairs:
+            out = add(out, atom_nf(("dedekind", (F(h), F(k)))))
+        return out
+    made = []
+    real = verdicts.substitute
+    monkeypatch.setattr(verdicts, "substitute", lambda *a: made.append(1) or real(*a))
+    verdict = verdicts.check_step(line(before), line(after), [(rule, None)], None, {}, DEFAULT_LIMITS)
+    assert not verdict.rule_ok
+    assert len(verdict.candidates) == verdicts._MAX_CANDIDATES
+    assert len(made) <= verdicts._MAX_CANDIDATES
+
+
+def test_three_term_watches_the_clock(monkeypatch):
+    # its search over pairs of the next line's calls is quadratic in them: it must meet the
+    # `seconds` limit inside (400 calls a side ran for minutes past it)
+    from checker.foundation.errors import OutOfTime
+    from checker.kernel import rules
+    def out_of_time():
+        raise OutOfTime("out of time")
+    monkeypatch.setattr(rules, "check_time", out_of_time)
+    target = [("dedekind", (F(1), F(3))), ("dedekind", (F(2), F(5)))]
+    with pytest.raises(OutOfTime):
+        rewrite("three_term", ("dedekind", (F(1), F(7))), target)
+
+
+from checker.foundation.numbers import int_text as _d
+_H, _K, _G, _G2 = map(_d, (3 ** 9500, 2 ** 16000 + 1, 2 ** 15000, 2 ** 15001))   # 4500-4900 digits
+
+
+@pytest.mark.parametrize("start, line, rules", [
+    (f"dedekind({_H}, {_K})", f"dedekind({_H}, {_K}) + 0", "reduce"),
+    (f"dedekind(1, {_K})", "0", "definition"),
+    (f"dedekind({_G}, {_G2})", "0", "reciprocity"),
+    (f"dedekind(-{_H}, {_K})", "0", "reciprocity"),
+    (f"dedekind({_H}, {_K})", "dedekind(5, 1)", "descent"),
+    (f"dedekind({_G}, {_G2})", "dedekind(5, 1)", "descent"),
+    (f"dedekind(-{_H}, {_K})", "dedekind(5, 1)", "descent"),
+    (f"dedekind({_G}, {_G2})", "dedekind(5, 1)", "inverse"),
+    (f"dedekind({_H}, {_K})", "dedekind(5, 1)", "common_factor"),
+    (f"dedekind({_H}, {_K})", f"dedekind(5, {_G}) + dedekind(1, {_G2})", "three_term"),
+    (f"dedekind(1, -{_K})", "0", "reduce"),                        # the value's own refusal
+    (f"generalized_dedekind({_G2}, 1, 5)", "0", "reciprocity"),   # the cost's own refusal
+], ids=lambda x: x if x.isidentifier() else "")
+def test_refusals_about_numbers_past_4300_digits_are_failures_not_crashes(start, line, rules):
+    # str() of an int past 4300 digits raises ValueError (CPython's default limit): the messages
+    # write numbers with value_text, every digit (the report abbreviates them)
+    report = check_text(f"chain {start}\n  = {line}    by {rules}\n")
+    assert not report.ok and report.failure.kind in ("failed", "limit", "error"), report.failure

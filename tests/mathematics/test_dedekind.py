@@ -127,6 +127,21 @@ def test_along_euclid_agrees_with_fast_path(h, k):
                                                    int(flint.fmpq.dedekind_sum(a, b).q))
 
 
+def test_along_euclid_watches_the_clock(monkeypatch):
+    # a pass over 10^4 digits runs for seconds (minutes without gmpy2): it meets the `seconds` limit
+    import checker.mathematics.dedekind as module
+    from checker.foundation.errors import OutOfTime
+    def out_of_time():
+        raise OutOfTime("out of time")
+    monkeypatch.setattr(module, "check_time", out_of_time)
+    fib = [1, 1]
+    while len(fib) < 2100:
+        fib.append(fib[-1] + fib[-2])
+    with pytest.raises(OutOfTime):               # from memory: 2098 steps from (F(2099), F(2100))
+        dedekind_along_euclid(fib[-2], fib[-1])
+    assert dedekind_along_euclid(fib[20], fib[21])[(fib[20], fib[21])] is not None   # 20 steps: no look
+
+
 def _dr_definition(h, k, x, y):
     return sum(sawtooth(h * (j + y) / k + x) * sawtooth((j + y) / Fraction(k)) for j in range(k))
 

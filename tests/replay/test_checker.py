@@ -160,6 +160,25 @@ def test_a_wrong_euclid_pass_is_a_checker_bug(monkeypatch):
     assert not report.ok and report.failure.kind == "checker bug" and report.exit_code == 3
 
 
+def test_no_euclid_pass_for_numbers_past_its_size(monkeypatch):
+    # the pass keeps every pair of Euclid's walk: about 0.6 b^2 bits for b-bit numbers (2 GB at
+    # 50,000 digits, 30 GB at the 200,000 a literal may have); past 2^15 bits the chain's few
+    # lines take the kernel's own algorithm, with the same values
+    import checker.kernel.evaluation as evaluation
+    from checker.interfaces.derive import derive_dedekind
+    from checker.mathematics.dedekind import dedekind
+    from checker.foundation.numbers import int_text
+    passes = []
+    real = evaluation.dedekind_along_euclid
+    monkeypatch.setattr(evaluation, "dedekind_along_euclid", lambda h, k: passes.append(k) or real(h, k))
+    h, k = 3 ** 21000 + 1, 2 ** 33000 + 1                # 33,001 bits
+    s = dedekind(h, k)
+    text = (f"chain dedekind({int_text(h)}, {int_text(k)})\n"
+            f"  = {int_text(s.numerator)}/{int_text(s.denominator)}    by value\n")
+    assert check_text(text).ok and not passes
+    assert check_text(derive_dedekind(3 ** 600 + 1, 2 ** 1500 + 1)).ok and passes   # within it: one pass
+
+
 def test_one_long_value_and_a_chain_agree_with_python_flint():
     # python-flint's fmpq.dedekind_sum: one value by the kernel, and every value of a derived chain
     import flint

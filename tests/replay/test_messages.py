@@ -156,6 +156,23 @@ def test_right_value_wrong_rule_suggests_the_rules_that_give_the_line():
     assert f.details[-1] == "this line does follow by inverse"
 
 
+def test_suggestions_stop_when_the_time_is_up(monkeypatch):
+    # the search for a better rule tries dozens of rule lists; once the check is out of time it
+    # reports the failed step as it is (it used to swallow the timeout and try every list)
+    from checker.foundation.errors import OutOfTime
+    from checker.replay import checking
+    real, calls = checking.check_step, []
+    def step(*args, **kwargs):
+        calls.append(args[2])
+        if len(calls) > 1:
+            raise OutOfTime("out of time")
+        return real(*args, **kwargs)
+    monkeypatch.setattr(checking, "check_step", step)
+    f = failure("chain dedekind(4, 7)\n  = dedekind(2, 7)    by reduce\n")
+    assert f.message.endswith("does not follow by reduce") and len(calls) == 2
+    assert not any(d.startswith("this line does follow") for d in f.details)
+
+
 def test_no_suggestion_when_the_value_is_wrong():
     # s(1, 5) = 1/5 while s(2, 5) = 0 (closed form s(1, k) = (k - 1)(k - 2)/(12k); s(2, 5) by hand)
     f = failure("chain dedekind(5, 17)\n  = -1/4 + (5/17 + 17/5 + 1/85)/12 - dedekind(1, 5)    by reciprocity\n")

@@ -9,6 +9,7 @@ class and is read in one place, the command line's ``main``.
 from __future__ import annotations
 
 __all__ = [
+    "unwritable_number",
     "CertificateError",
     "SyntaxProblem",
     "DomainError",
@@ -83,6 +84,17 @@ class DomainError(CertificateError):
     """A function was asked for a value outside its definition."""
 
     kind = "error"
+
+
+def unwritable_number(e: BaseException) -> "DomainError | None":
+    """The error to report for Python's refusal to write an int of over 4,300 digits as text
+    (CPython 3.11+, ValueError), met while a message about such a number was being written;
+    None for any other exception.  quasicert bounds its numbers itself (literal-digits,
+    integer-bits) but keeps Python's cap, which guards every other conversion of text."""
+    if isinstance(e, ValueError) and "integer string conversion" in str(e):
+        return DomainError("a number here has more than 4,300 digits, and the message about it could not be "
+                           "written (Python's cap on writing integers as text); nothing here was verified")
+    return None
 
 
 class BudgetExceeded(CertificateError):

@@ -11,6 +11,7 @@ from contextvars import ContextVar
 from dataclasses import dataclass, fields, replace
 
 from .errors import BudgetExceeded, OutOfTime
+from .numbers import rough_int
 
 __all__ = ["Limits", "DEFAULT_LIMITS", "FORMER_NAMES", "time_limit", "check_time", "call_within", "current_deadline"]
 
@@ -50,7 +51,7 @@ class Limits:
         if needed > allowed:
             unit = _UNITS.get(name, "")
             raise BudgetExceeded(
-                f"{what} needs {_short(needed)}{unit}, over the limit {name.replace('_', '-')} = {allowed}"
+                f"{what} needs {rough_int(needed)}{unit}, over the limit {name.replace('_', '-')} = {allowed}"
                 f" (raise it with --limit {name.replace('_', '-')}=N)")
 
     def with_overrides(self, overrides: dict[str, int]) -> "Limits":
@@ -68,10 +69,6 @@ _UNITS = {"integer_bits": " bits", "terms": " steps", "definition_terms": " term
           "bernoulli_index": "", "list_length": " entries", "literal_digits": " digits",
           "nesting": " levels", "file_bytes": " bytes",
           "seconds": " seconds", "tokens": " tokens", "lemma_degree": ""}
-
-
-def _short(n: int) -> str:
-    return str(n) if n < 10**15 else f"about 10^{len(str(n)) - 1}" if n.bit_length() < 10000 else f"about 2^{n.bit_length()}"
 
 
 DEFAULT_LIMITS = Limits()

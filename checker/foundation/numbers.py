@@ -14,7 +14,7 @@ from __future__ import annotations
 import re
 from fractions import Fraction  # noqa: F401  (the doctests use it)
 
-__all__ = ["abbreviate_numbers", "atom_text", "gmp_mpz", "int_text", "text_int", "value_text"]
+__all__ = ["abbreviate_numbers", "atom_text", "gmp_mpz", "int_text", "rough_int", "text_int", "value_text"]
 
 _DIRECT_BITS = 12_000     # about 3600 digits: below Python's 4300-digit guard
 _DIRECT_DIGITS = 4_000
@@ -29,6 +29,21 @@ def int_text(n: int) -> str:
     k = (n.bit_length() * 3 // 10) // 2        # about half the digits
     high, low = divmod(n, 10 ** k)
     return int_text(high) + int_text(low).rjust(k, "0")
+
+
+def rough_int(n: int, exact_below: int = 10**15) -> str:
+    """An integer for a message: itself when |n| < exact_below, else its order of magnitude
+    (about 10^e; about 2^b past 10,000 bits, where even counting its digits costs).
+
+    >>> rough_int(12345), rough_int(-10**40 - 1), rough_int(3**20000)
+    ('12345', 'about -10^40', 'about 2^31699')
+    """
+    if abs(n) < exact_below:
+        return str(n)
+    sign = "-" if n < 0 else ""
+    if n.bit_length() >= 10000:
+        return f"about {sign}2^{abs(n).bit_length() - 1}"
+    return f"about {sign}10^{len(str(abs(n))) - 1}"
 
 
 def text_int(s: str) -> int:

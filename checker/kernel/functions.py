@@ -29,7 +29,7 @@ from ..mathematics.fourier_dedekind_reciprocity import by_reciprocity, polynomia
 from ..mathematics.residues import jacobi as _jacobi, reciprocal_mod as _reciprocal_mod
 from ..mathematics.frobenius import frobenius, nonrepresentable_count as nonrepresentable
 from ..foundation.limits import Limits
-from ..foundation.numbers import value_text
+from ..foundation.numbers import rough_int, value_text
 from ..mathematics.periodic import constituents, periodic
 from ..mathematics.ehrhart import budget as _budget, hstar as _hstar
 from ..mathematics.elementary import as_integer as _as_integer
@@ -251,11 +251,7 @@ def _cost_partitions(n, parts):
     except CertificateError:
         return None
     terms, what = partitions_cost(n, parts)
-    return ("terms", terms, f"{what} (n = {_short_int(n)}, parts up to {_short_int(max(parts, default=0))})")
-
-
-def _short_int(k: int) -> str:
-    return str(k) if abs(k) < 10**15 else f"about 10^{len(str(abs(k))) - 1}"
+    return ("terms", terms, f"{what} (n = {rough_int(n)}, parts up to {rough_int(max(parts, default=0))})")
 
 
 def _cost_polynomial_part(n, parts):

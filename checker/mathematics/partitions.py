@@ -52,13 +52,19 @@ from math import factorial, gcd, prod
 from .bernoulli import bernoulli_numbers
 from .elementary import as_integer, as_positive
 from ..foundation.errors import BudgetExceeded, DomainError
+from ..foundation.numbers import rough_int
 from ..foundation.limits import DEFAULT_LIMITS, Limits, check_time
 from .few_parts import few_parts
 from .fourier_dedekind import cyclic_convolution, fourier_dedekind
 
+
 __all__ = ["partitions", "partitions_extended", "partitions_by_table",
            "partitions_by_quasipolynomial", "partitions_by_fourier_dedekind", "polynomial_part",
            "PartitionQuasiPolynomial", "check_parts", "plan", "plans", "partitions_cost", "Plan"]
+
+
+def _rough(k: int) -> str:
+    return rough_int(k, 10**12)      # counts in messages: exact up to 10^12
 
 
 def check_parts(parts, what: str = "partitions", allow_empty: bool = False) -> tuple[int, ...]:
@@ -235,7 +241,7 @@ def _table_plan(n, parts):
     if not parts:
         return None
     cost = table_cost(n, parts)
-    return Plan("table", n, parts, cost, cost, f"by a table of {n + 1} coefficients for {len(parts)} parts",
+    return Plan("table", n, parts, cost, cost, f"by a table of {_rough(n + 1)} coefficients for {len(parts)} parts",
                 lambda limits: partitions_by_table(n, parts))
 
 
@@ -270,7 +276,7 @@ def _recursion_plan(n, parts):
     small, big = parts[:3], parts[:2:-1]           # recurse over the largest parts
     leaves = recursion_leaves(n, big)
     return Plan("recursion", n, parts, leaves * 2 * _bits(n, parts), leaves,
-                f"by summing over multiples of the {len(big)} largest parts: up to {_short(leaves)} "
+                f"by summing over multiples of the {len(big)} largest parts: up to {_rough(leaves)} "
                 "three-part values", lambda limits: _by_recursion(n, small, big))
 
 
@@ -297,7 +303,7 @@ def _cones_plan(n, parts, cheapest):
     the budget as they run."""
     admitted = _CONE_STEPS_PER_TERM * DEFAULT_LIMITS.terms
     steps = admitted if cheapest is None else min(cheapest.steps, admitted)
-    what = (f"for {len(parts)} parts up to {_short(max(parts))} by Barvinok's signed cones of the "
+    what = (f"for {len(parts)} parts up to {_rough(max(parts))} by Barvinok's signed cones of the "
             "simplex {x >= 0 : a.x = n}")
     return Plan("cones", n, parts, steps, 0, what, lambda limits: _cones_then(n, parts, cheapest, what, limits))
 
@@ -321,18 +327,14 @@ def _cones_then(n, parts, cheapest, what, limits: Limits) -> int:
         pass
     if fallback is None:
         cheapest_text = "" if cheapest is None else \
-            f"; the cheapest other method, {cheapest.what}, needs {_short(cheapest.terms)}"
+            f"; the cheapest other method, {cheapest.what}, needs {_rough(cheapest.terms)}"
         raise BudgetExceeded(
-            f"p_A(n) {what} (n = {_short(n)}) needs more than {limits.terms} steps: the cones stopped "
+            f"p_A(n) {what} (n = {_rough(n)}) needs more than {limits.terms} steps: the cones stopped "
             f"there{cheapest_text}; over the limit terms = {limits.terms} (raise it with --limit terms=N)")
     return fallback.run(limits)
 
 
 _METHODS = (_few_plan, _table_plan, _waves_plan, _recursion_plan, _fourier_plan)
-
-
-def _short(k: int) -> str:
-    return str(k) if k < 10**12 else f"about 10^{len(str(k)) - 1}"
 
 
 def _by_recursion(n: int, small, big) -> int:

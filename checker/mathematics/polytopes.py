@@ -32,6 +32,7 @@ from math import floor as _floor, gcd
 
 from .elementary import as_integer, as_rational
 from ..foundation.errors import DomainError
+from ..foundation.numbers import value_text
 from .polygons import convex_hull, polygon_count, _ceil
 from .ehrhart import budget, count
 from .integer_lattices import extended_gcd
@@ -160,7 +161,7 @@ def polytope_of_vertices(points, limits=None, what="lattice_points") -> Polyhedr
 def _dilation(t, what):
     t = as_integer(t, f"the dilation factor of {what}")
     if t < 0:
-        raise DomainError(f"the dilation factor must be >= 0, not {t}")
+        raise DomainError(f"the dilation factor must be >= 0, not {value_text(t)}")
     return t
 
 

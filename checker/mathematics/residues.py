@@ -23,6 +23,7 @@ from math import gcd
 
 from .elementary import as_integer, as_positive
 from ..foundation.errors import DomainError
+from ..foundation.numbers import value_text
 
 __all__ = ["jacobi", "reciprocal_mod"]
 
@@ -56,5 +57,5 @@ def reciprocal_mod(a, m) -> int:
     m = as_positive(m, "the modulus of reciprocal_mod")
     g = gcd(a, m)
     if g != 1:
-        raise DomainError(f"{a} has no inverse modulo {m}: gcd({a}, {m}) = {g}")
+        raise DomainError(f"{value_text(a)} has no inverse modulo {value_text(m)}: gcd = {value_text(g)}")
     return pow(a, -1, m) if m > 1 else 0

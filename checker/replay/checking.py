@@ -19,7 +19,7 @@ from pathlib import Path
 from ..language import statements as st
 from ..language.expressions import Neg, Num, Product
 from ..foundation.errors import (BudgetExceeded, CertificateError, CheckerBug, OutOfTime, SyntaxProblem,
-                                 UnreadableFile)
+                                 UnreadableFile, unwritable_number)
 from ..kernel.evaluation import Evaluator
 from ..kernel.functions import REGISTRY
 from ..kernel.verdicts import check_step, compare, compare_to_quotient, congruent, known_rule, nf_value
@@ -249,6 +249,11 @@ class _Replay:
                     raise
                 except CertificateError as e:
                     self._fail(_from_error(e.at(stmt), source_note=self.source_note))
+                except ValueError as e:
+                    error = unwritable_number(e)
+                    if error is None:
+                        raise
+                    self._fail(_from_error(error.at(stmt), source_note=self.source_note))
         except _Stop:
             pass
 

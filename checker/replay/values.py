@@ -3,6 +3,7 @@ from __future__ import annotations
 
 from fractions import Fraction
 
+from ..foundation.errors import unwritable_number
 from ..foundation.limits import DEFAULT_LIMITS, Limits, time_limit
 from ..kernel.evaluation import Evaluator, value_of_number_call
 from ..language.parsing import parse_expression, read_number_call
@@ -24,9 +25,15 @@ def evaluate(text: str, env: dict | None = None, limits: Limits = DEFAULT_LIMITS
     >>> evaluate("-2^2"), evaluate("2^3^2")
     (Fraction(-4, 1), Fraction(512, 1))
     """
-    call = read_number_call(text, limits)
-    if call is not None:        # NAME(INT, ..., INT): no tree unless an error wants its position
-        return value_of_number_call(call, limits)
-    expr = parse_expression(text, limits)
-    with time_limit(limits.seconds):
-        return Evaluator(env, limits).number(expr)
+    try:
+        call = read_number_call(text, limits)
+        if call is not None:        # NAME(INT, ..., INT): no tree unless an error wants its position
+            return value_of_number_call(call, limits)
+        expr = parse_expression(text, limits)
+        with time_limit(limits.seconds):
+            return Evaluator(env, limits).number(expr)
+    except ValueError as e:
+        error = unwritable_number(e)
+        if error is None:
+            raise
+        raise error from None

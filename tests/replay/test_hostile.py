@@ -272,3 +272,43 @@ def _lemma_text(draw):
 @given(_lemma_text())
 def test_random_lemmas_reach_a_verdict(text):
     verdict(check_text(text, limits=BOUNDED))
+
+
+def test_numbers_past_python_s_text_cap_never_raise():
+    """Every function with one argument of 5,000 digits (Python writes at most 4,300 as text):
+    a verdict or a CertificateError, never a ValueError from a message about the number."""
+    import itertools
+    from checker import CertificateError, evaluate
+    from checker.kernel.functions import REGISTRY
+    huge = "7" * 5000
+    shapes = [huge, "-" + huge, "1/" + huge, f"[{huge}, 3]", f"[[0, 0], [{huge}, 1], [1, 1]]"]
+    seen = 0
+    for name, spec in sorted(REGISTRY.items()):
+        count = min(spec.arity[1], 3)
+        for position, shape in itertools.product(range(count), shapes):
+            args = ["3"] * count
+            args[position] = shape
+            text = f"{name}({', '.join(args)})"
+            report = check_text(f"claim {text} = 1\n")          # raised ValueError before
+            assert report.ok or report.failure.kind in ("failed", "error", "limit"), text[:60]
+            try:
+                evaluate(text)
+            except CertificateError:
+                pass
+            seen += 1
+    assert seen > 200
+
+
+def test_a_message_python_cannot_write_is_a_plain_error(monkeypatch):
+    # any message left that writes a long int with str(): the statement fails with a plain error
+    from checker import CertificateError, evaluate
+    from checker.kernel import functions
+    def writes_a_long_int(h, k):
+        return f"{10 ** 5000}"
+    import dataclasses
+    spec = dataclasses.replace(functions.REGISTRY["dedekind"], impl=writes_a_long_int)
+    monkeypatch.setitem(functions.REGISTRY, "dedekind", spec)
+    report = check_text("claim dedekind(1, 3) = 1\n")
+    assert report.failure.kind == "error" and "more than 4,300 digits" in report.failure.message
+    with pytest.raises(CertificateError, match="more than 4,300 digits"):
+        evaluate("dedekind(1, 3)")

@@ -193,8 +193,8 @@ def _reciprocity(atom, target, limits):
 # -- descent: reciprocity and reduce, repeated ---------------------------------
 
 def _descent(atom, target, limits):
-    """s(h, k) = n/(12 k b) +- s(a, b) for a pair (a, b) that reciprocity and reduce, applied in
-    turn, reach from (h, k): the pair is read from the next line (the first one met)."""
+    """s(h, k) = n/(12 k b) +- s(a, b) for each pair (a, b) of the next line that reciprocity and
+    reduce, applied in turn, reach from (h, k)."""
     _only(atom, "dedekind")
     h, k = _dedekind_args(atom)
     if h < 1:
@@ -204,7 +204,7 @@ def _descent(atom, target, limits):
     except RuleRefused as e:
         _refuse(f"descent repeats reciprocity, which needs coprime h and k: {e.message.split(', but ')[-1]}")
     wanted = {(x, y) for x, y in _target_dedekind(target) if y >= 1 and (x, y) != (h, k)}
-    found = reciprocity_descent(h, k, wanted) if wanted else []
+    found = _walk(h, k, wanted)
     if not found:
         _refuse(f"the next line has no dedekind(a, b) at a pair that reciprocity and reduce reach from "
                 f"({_t(h)}, {_t(k)}); they go {_first_pairs(h, k)}")
@@ -216,6 +216,26 @@ def _descent(atom, target, limits):
         c = Ratio(long_integer(n), long_integer(d)) if d.bit_length() > LONG_BITS else Fraction(n, d)
         out.append(add(constant(c), scale(_call("dedekind", a, b), Fraction(sign))))
     return out
+
+
+_WALKS: dict = {}       # (h, k, wanted) -> the walk's pairs: a failed step's suggestions ask again
+_WALKS_SIZE = 8
+
+
+def _walk(h: int, k: int, wanted: set) -> list:
+    """reciprocity_descent(h, k, wanted), kept for the next identical request (a pure function of
+    them; a walk of 60,000-digit numbers takes a second, and the suggestions for a failed step
+    try it with some 40 rule lists)."""
+    if not wanted:
+        return []
+    key = (h, k, frozenset(wanted))
+    found = _WALKS.get(key)
+    if found is None:
+        found = reciprocity_descent(h, k, wanted)
+        if len(_WALKS) >= _WALKS_SIZE:
+            _WALKS.clear()
+        _WALKS[key] = found
+    return found
 
 
 def _first_pairs(h: int, k: int, count: int = 3) -> str:

@@ -329,3 +329,19 @@ def test_refusals_about_numbers_past_4300_digits_are_failures_not_crashes(start,
     # write numbers with value_text, every digit (the report abbreviates them)
     report = check_text(f"chain {start}\n  = {line}    by {rules}\n")
     assert not report.ok and report.failure.kind in ("failed", "limit", "error"), report.failure
+
+
+def test_a_failed_descent_walks_once_for_all_its_suggestions(monkeypatch):
+    # the suggestions after a failed step try some 40 rule lists, each with descent in it
+    from checker.kernel import rules
+    calls = []
+    real = rules.reciprocity_descent
+    monkeypatch.setattr(rules, "reciprocity_descent",
+                        lambda h, k, wanted: calls.append((h, k, frozenset(wanted))) or real(h, k, wanted))
+    rules._WALKS.clear()
+    k = 3 ** 400
+    c = dedekind(2, k) - F(1, 18)                     # s(1, 3) = 1/18: the value is right
+    report = chain(f"dedekind(2, {k})", f"{c.numerator}/{c.denominator} + dedekind(1, 3)", "descent")
+    assert not report.ok and "value check: passed" in " ".join(report.failure.details)
+    # (1, 3) is off the walk: refused; each pair the rule lists lead to is walked once (5 walks without the memo)
+    assert len(calls) == len(set(calls)) >= 2 and (2, k, frozenset({(1, 3)})) in calls

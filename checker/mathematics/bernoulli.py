@@ -25,6 +25,7 @@ from math import comb
 from .elementary import as_integer, as_rational, frac, sawtooth
 from ..foundation.errors import DomainError
 from ..foundation.limits import check_time
+from ..foundation.numbers import value_text
 
 __all__ = ["bernoulli", "bernoulli_polynomial", "periodic_bernoulli", "bernoulli_numbers"]
 
@@ -78,7 +79,7 @@ def bernoulli(n, x=None) -> Fraction:
         return bernoulli_polynomial(n, x)
     n = as_integer(n, "the index of a Bernoulli number")
     if n < 0:
-        raise DomainError(f"the index of a Bernoulli number must be >= 0, not {n}")
+        raise DomainError(f"the index of a Bernoulli number must be >= 0, not {value_text(n)}")
     if n > 1 and n % 2:
         return Fraction(0)      # B_n = 0 for odd n > 1, at any size (from the odd function x/(e^x - 1) + x/2)
     _extend_cache(n)
@@ -89,7 +90,7 @@ def bernoulli_polynomial(n, x) -> Fraction:
     """B_n(x) = sum_{j=0}^{n} C(n, j) B_j x^(n-j), exactly, for rational x."""
     n = as_integer(n, "the degree of a Bernoulli polynomial")
     if n < 0:
-        raise DomainError(f"the degree of a Bernoulli polynomial must be >= 0, not {n}")
+        raise DomainError(f"the degree of a Bernoulli polynomial must be >= 0, not {value_text(n)}")
     x = as_rational(x, "the argument of a Bernoulli polynomial")
     bs = bernoulli_numbers(n)
     # Clear denominators: q^n B_n(p/q) = sum C(n,j) B_j p^(n-j) q^j.
@@ -108,7 +109,7 @@ def periodic_bernoulli(n, x) -> Fraction:
     """Bbar_n(x): B_n({x}) for n != 1, and the sawtooth ((x)) for n = 1."""
     n = as_integer(n, "the index of a periodic Bernoulli function")
     if n < 0:
-        raise DomainError(f"the index of a periodic Bernoulli function must be >= 0, not {n}")
+        raise DomainError(f"the index of a periodic Bernoulli function must be >= 0, not {value_text(n)}")
     x = as_rational(x, "the argument of a periodic Bernoulli function")
     if n == 1:
         return sawtooth(x)

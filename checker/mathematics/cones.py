@@ -64,6 +64,7 @@ from ..foundation.limits import check_time
 from .bernoulli import bernoulli
 from .integer_lattices import lll_reduce
 from .polyhedra import extreme_rays, rank
+from ..foundation.numbers import value_text
 
 __all__ = ["ConeSum", "TooCostly", "allowance", "triangulate", "unimodular_decomposition", "polar_unimodular",
            "decomposition_cost"]
@@ -374,5 +375,5 @@ class ConeSum:
             spend(2 * self.size * self.dimension)
         values = [self._value(terms, t) for _, terms in self.sums]
         if values[0] != values[1] or values[0].denominator != 1:
-            raise CheckerBug.found(f"the cone sum at t = {t} is not one integer: {values}")
+            raise CheckerBug.found(f"the cone sum at t = {value_text(t)} is not one integer: {value_text(values)}")
         return int(values[0])

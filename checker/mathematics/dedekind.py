@@ -41,6 +41,7 @@ from .bernoulli import bernoulli_numbers
 from .elementary import as_integer, as_positive, as_rational
 from ..foundation.errors import DomainError
 from ..foundation.limits import check_time
+from ..foundation.numbers import value_text
 
 __all__ = [
     "dedekind", "twelve_k_dedekind", "dedekind_equals", "dedekind_by_definition", "dedekind_along_euclid",
@@ -353,7 +354,7 @@ def dedekind_along_euclid(h: int, k: int) -> dict[tuple[int, int], tuple[int, in
             check_time()
         below, rest = divmod(h * h + k * k + 1 - 3 * h * k - k * below, h)
         if rest:
-            raise ArithmeticError(f"12 k s(h, k) is not an integer at ({h}, {k})")
+            raise ArithmeticError(f"12 k s(h, k) is not an integer at ({value_text(h)}, {value_text(k)})")
         values[(h, k)] = below
     return values
 
@@ -384,7 +385,8 @@ def reciprocity_descent(h: int, k: int, wanted=None) -> list[tuple[int, int, int
     True
     """
     if h < 1 or k < 1:
-        raise DomainError(f"the descent from s(h, k) needs h >= 1 and k >= 1, not h = {h}, k = {k}")
+        raise DomainError(f"the descent from s(h, k) needs h >= 1 and k >= 1, not h = {value_text(h)}, "
+                          f"k = {value_text(k)}")
     floor = min((y for _, y in wanted), default=k + h + 1) if wanted is not None else 0
     long = max(h.bit_length(), k.bit_length()) > _GMP_BITS and _load_gmp() is not None
     a, b = (_gmp_mpz(h), _gmp_mpz(k)) if long else (h, k)
@@ -450,7 +452,7 @@ def generalized_dedekind_by_definition(p, h, k) -> Fraction:
     """Apostol's s_p(h, k) = sum_{j=0}^{k-1} (j/k) Bbar_p(h j/k), term by term."""
     p = as_integer(p, "the order of a generalized Dedekind sum")
     if p < 1:
-        raise DomainError(f"the order of a generalized Dedekind sum must be >= 1, not {p}")
+        raise DomainError(f"the order of a generalized Dedekind sum must be >= 1, not {value_text(p)}")
     h = as_integer(h, "the second argument of generalized_dedekind")
     k = as_positive(k, "the third argument of generalized_dedekind")
     coeffs, d = _bernoulli_polynomial_scaled(p, k)

@@ -31,6 +31,7 @@ from __future__ import annotations
 from math import gcd
 
 from .floor_sums import staircase
+from ..foundation.numbers import value_text
 
 __all__ = ["few_parts", "two_parts", "three_parts"]
 
@@ -90,5 +91,5 @@ def three_parts(n: int, a: int, b: int, c: int) -> int:
                  + a * b * count)
     value, rest = divmod(numerator, a * b)
     if rest:
-        raise ArithmeticError(f"three_parts({n}, {a}, {b}, {c}) came out fractional: a bug")
+        raise ArithmeticError(f"three_parts({', '.join(map(value_text, (n, a, b, c)))}) came out fractional: a bug")
     return value

@@ -37,6 +37,7 @@ from .elementary import as_integer, as_positive
 from ..foundation.errors import DomainError
 from ..foundation.limits import check_time
 from .floor_sums import floor_sums
+from ..foundation.numbers import value_text
 
 __all__ = ["fourier_dedekind", "pair_table"]
 
@@ -50,8 +51,8 @@ def _check(n, parts, b):
     for i, a in enumerate(parts, 1):
         if gcd(a, b) != 1:
             raise DomainError(
-                f"fourier_dedekind needs every entry coprime to {b}, but entry {i} is {a} "
-                f"(gcd {gcd(a, b)}): a term 1/(1 - xi^(j a)) would divide by zero")
+                f"fourier_dedekind needs every entry coprime to {value_text(b)}, but entry {i} is {value_text(a)} "
+                f"(gcd {value_text(gcd(a, b))}): a term 1/(1 - xi^(j a)) would divide by zero")
     return n, parts, b
 
 

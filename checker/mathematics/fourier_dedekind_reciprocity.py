@@ -41,6 +41,7 @@ from math import gcd
 
 from .fourier_dedekind import fourier_dedekind
 from .partitions import polynomial_part
+from ..foundation.numbers import value_text
 
 __all__ = ["coprimality_problem", "reciprocity_total", "reciprocity_range_problem",
            "by_reciprocity", "reciprocity_cost", "polynomial_part_cost", "bridge_constant", "poly_at"]
@@ -50,11 +51,12 @@ def coprimality_problem(parts) -> str:
     """'' when the parts are positive and pairwise coprime, else the reason."""
     for a in parts:
         if a < 1:
-            return f"the parts must be positive, but {a} is not"
+            return f"the parts must be positive, but {value_text(a)} is not"
     for i, a in enumerate(parts):
         for c in parts[i + 1:]:
             if gcd(a, c) != 1:
-                return f"the parts must be pairwise coprime, but gcd({a}, {c}) = {gcd(a, c)}"
+                return (f"the parts must be pairwise coprime, but gcd({value_text(a)}, {value_text(c)}) = "
+                        f"{value_text(gcd(a, c))}")
     return ""
 
 
@@ -62,8 +64,8 @@ def reciprocity_range_problem(n: int, parts) -> str:
     """'' when the law holds at n (0 <= n <= a_1 + ... + a_d - 1), else the reason."""
     top = sum(parts) - 1
     if not 0 <= n <= top:
-        return (f"the reciprocity law for A = {list(parts)} holds for 0 <= n <= {top} "
-                f"(the sum of the parts minus 1), not at n = {n}")
+        return (f"the reciprocity law for A = {value_text(list(parts))} holds for 0 <= n <= {value_text(top)} "
+                f"(the sum of the parts minus 1), not at n = {value_text(n)}")
     return ""
 
 

@@ -27,6 +27,7 @@ from math import gcd
 from ..foundation.errors import DomainError
 from ..foundation.limits import check_time
 from .partitions import check_parts
+from ..foundation.numbers import value_text
 
 __all__ = ["frobenius", "frobenius_by_table", "nonrepresentable_count", "residue_table", "fast_generators"]
 
@@ -38,7 +39,7 @@ def residue_table(parts) -> list[int]:
     for a in parts:
         g = gcd(g, a)
     if g != 1:
-        raise DomainError(f"the parts have common divisor {g}, so infinitely many integers "
+        raise DomainError(f"the parts have common divisor {value_text(g)}, so infinitely many integers "
                           "are not representable and no Frobenius number exists")
     a1 = min(parts)
     inf = None
@@ -90,7 +91,7 @@ def fast_generators(parts):
     for a in distinct:
         g = gcd(g, a)
     if g != 1:
-        raise DomainError(f"the parts have common divisor {g}, so infinitely many integers "
+        raise DomainError(f"the parts have common divisor {value_text(g)}, so infinitely many integers "
                           "are not representable and no Frobenius number exists")
     return distinct
 

@@ -52,7 +52,7 @@ from math import factorial, gcd, prod
 from .bernoulli import bernoulli_numbers
 from .elementary import as_integer, as_positive
 from ..foundation.errors import BudgetExceeded, DomainError
-from ..foundation.numbers import rough_int
+from ..foundation.numbers import rough_int, value_text
 from ..foundation.limits import DEFAULT_LIMITS, Limits, check_time
 from .few_parts import few_parts
 from .fourier_dedekind import cyclic_convolution, fourier_dedekind
@@ -250,7 +250,7 @@ def _waves_plan(n, parts):
         return None
     cost = quasipolynomial_cost(parts)
     return Plan("waves", n, parts, cost, cost // 20,
-                f"by the waves of P_A for parts up to {max(parts)}",
+                f"by the waves of P_A for parts up to {_rough(max(parts))}",
                 lambda limits: PartitionQuasiPolynomial.of(parts).value(n))
 
 
@@ -291,7 +291,7 @@ def _fourier_plan(n, parts):
                     lambda limits: partitions_by_fourier_dedekind(n, parts))
     entries = sum(parts) * (m - 1)
     return Plan("Fourier-Dedekind", n, parts, 4 * entries + m ** 4, entries,
-                f"for {m} pairwise coprime parts by {m} Fourier-Dedekind sums modulo parts up to {max(parts)}",
+                f"for {m} pairwise coprime parts by {m} Fourier-Dedekind sums modulo parts up to {_rough(max(parts))}",
                 lambda limits: partitions_by_fourier_dedekind(n, parts))
 
 
@@ -368,7 +368,7 @@ def partitions_by_fourier_dedekind(n, parts) -> int:
         check_time()
         value += fourier_dedekind(-n, parts[:j] + parts[j + 1:], a)
     if value.denominator != 1:
-        raise ArithmeticError(f"the Fourier-Dedekind decomposition of p_A({n}) came out fractional: a bug")
+        raise ArithmeticError(f"the Fourier-Dedekind decomposition of p_A({value_text(n)}) came out fractional: a bug")
     return value.numerator
 
 

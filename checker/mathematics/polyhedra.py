@@ -39,6 +39,7 @@ from math import gcd, lcm
 from typing import Callable, Optional
 
 from ..foundation.errors import DomainError
+from ..foundation.numbers import value_text
 from .polyhedral_certificates import check_empty, check_hull, check_unbounded, check_vertex_list
 
 __all__ = ["Polyhedron", "describe", "hull_description", "extreme_rays", "nullspace", "rank",
@@ -255,7 +256,7 @@ def _analysed(d, ineqs, eqs, vertices) -> Polyhedron:
 
 
 def _point(v) -> str:
-    return "[" + ", ".join(str(x) for x in v) + "]"
+    return "[" + ", ".join(value_text(x) for x in v) + "]"
 
 
 def hull_description(points, spend: Spend = None):

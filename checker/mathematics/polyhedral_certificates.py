@@ -54,6 +54,7 @@ from fractions import Fraction
 from math import lcm
 
 from ..foundation.errors import CheckerBug
+from ..foundation.numbers import value_text
 from ..foundation.limits import check_time
 
 __all__ = ["check_hull", "check_vertex_list", "check_empty", "check_unbounded", "nonnegative_combination"]
@@ -70,7 +71,7 @@ def _refuse(message: str):
 
 
 def _text(v) -> str:
-    return "(" + ", ".join(str(x) for x in v) + ")"
+    return "(" + ", ".join(value_text(x) for x in v) + ")"
 
 
 def _rank_mod_p(vectors, enough=None) -> int:

@@ -79,7 +79,7 @@ def lattice_points(t, points, limits=None) -> Fraction:
     if len(pts[0]) == 2:
         return Fraction(polygon_count([(t * x, t * y) for x, y in pts]))
     poly = polytope_of_vertices(pts, limits)
-    return Fraction(count(poly, t, budget(limits, f"counting lattice points at t = {t}")))
+    return Fraction(count(poly, t, budget(limits, f"counting lattice points at t = {value_text(t)}")))
 
 
 # -- polytopes of any dimension ------------------------------------------------
@@ -172,14 +172,15 @@ def lattice_points_inequalities(t, rows, equations=(), limits=None) -> Fraction:
     """
     t = _dilation(t, "lattice_points_in")
     poly = polytope_of_inequalities(rows, equations, limits)
-    return Fraction(count(poly, t, budget(limits, f"counting lattice points at t = {t}")))
+    return Fraction(count(poly, t, budget(limits, f"counting lattice points at t = {value_text(t)}")))
 
 
 def interior_points_of(t, poly: Polyhedron, limits=None) -> Fraction:
     """Lattice points in the interior (in R^d) of t P: 0 unless P is full-dimensional, and 0 at t = 0."""
     if poly.empty or poly.dimension < poly.ambient or t == 0:
         return Fraction(0)
-    return Fraction(count(poly, t, budget(limits, f"counting interior lattice points at t = {t}"), interior=True))
+    spend = budget(limits, f"counting interior lattice points at t = {value_text(t)}")
+    return Fraction(count(poly, t, spend, interior=True))
 
 
 def _segment_lattice_points(p, q) -> int:

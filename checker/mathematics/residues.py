@@ -33,7 +33,7 @@ def jacobi(a, n) -> int:
     a = as_integer(a, "the first argument of jacobi")
     n = as_positive(n, "the second argument of jacobi")
     if n % 2 == 0:
-        raise DomainError(f"the Jacobi symbol (a/n) needs an odd n, not {n}")
+        raise DomainError(f"the Jacobi symbol (a/n) needs an odd n, not {value_text(n)}")
     return _jacobi(a % n, n)
 
 

@@ -43,6 +43,7 @@ from itertools import product
 from math import gcd
 
 from ..foundation.limits import check_time
+from ..foundation.numbers import value_text
 from .rational_functions import (RationalFunction, as_polynomial, exact_quotient,
                                  integer_factorization, is_integer_polynomial, names_of, p_add,
                                  p_constant, p_scale, poly_text)
@@ -320,10 +321,10 @@ class Assumptions:
     # -- integers, bounds, zero ------------------------------------------------
     def integral(self, v) -> str | None:
         if isinstance(v, (int, Fraction)):
-            return None if Fraction(v).denominator == 1 else f"{v} is not an integer"
+            return None if Fraction(v).denominator == 1 else f"{value_text(v)} is not an integer"
         p = _poly(v)
         if p is None:
-            return f"{v} is not a polynomial in the parameters, so it is not known to be an integer"
+            return f"{value_text(v)} is not a polynomial in the parameters, so it is not known to be an integer"
         n, L = _integer_form(p)
         if L == 1:
             return None
@@ -331,20 +332,21 @@ class Assumptions:
         if rs is not None and rs <= {0}:       # (no residue at all: no allowed values)
             return None
         if rs is None:
-            return f"the assumptions do not make {v} an integer"
+            return f"the assumptions do not make {value_text(v)} an integer"
         other = min(rs - {0})
-        return (f"the assumptions do not make {v} an integer: {_text(n)} can be {other} (mod {L})")
+        return (f"the assumptions do not make {value_text(v)} an integer: {_text(n)} can be {value_text(other)} "
+                f"(mod {value_text(L)})")
 
     def at_least(self, v, c) -> str | None:
         """v >= c for every allowed value (v a polynomial value, c a rational)."""
         p = _poly(v)
         if p is None:
-            return f"{v} is not a polynomial in the parameters"
+            return f"{value_text(v)} is not a polynomial in the parameters"
         target = Fraction(c)
         whole = self.integral(v) is None and target.denominator == 1
         if self._bounded_below(p, target, whole, depth=2):
             return None
-        return f"the assumptions do not give {_shown(v)} >= {target}"
+        return f"the assumptions do not give {_shown(v)} >= {value_text(target)}"
 
     def _bounded_below(self, p: dict, target: Fraction, whole: bool, depth: int) -> bool:
         lo = self.lower_bound(p)
@@ -379,7 +381,7 @@ class Assumptions:
         """v != 0 for every allowed value (v a polynomial value)."""
         p = _poly(v)
         if p is None:
-            return f"{v} is not a polynomial in the parameters"
+            return f"{value_text(v)} is not a polynomial in the parameters"
         c = p_constant(p)
         if c is not None:
             return None if c else "it is 0"
@@ -435,7 +437,7 @@ class Assumptions:
         if c == 0:
             return None if p_constant(y) in (1, -1) else why
         if c.bit_length() > 64:
-            return f"{why} ({c} is too large to factor here)"
+            return f"{why} ({value_text(c)} is too large to factor here)"
         for p in _primes_dividing(c):
             rs = self.residues(y, p)
             if rs is None or 0 in rs:
@@ -492,7 +494,7 @@ def _as_value(p: dict):
 def _shown(v) -> str:
     if isinstance(v, dict):
         return _text(v)
-    return str(v)
+    return value_text(v)
 
 
 def _multipliers(p: dict, fact: dict):

@@ -21,7 +21,7 @@ from ..foundation.errors import BudgetExceeded, CertificateError, CheckerBug, Do
 from .functions import REGISTRY
 from .ratios import Ratio, long_integer
 from ..foundation.limits import DEFAULT_LIMITS, Limits, call_within, check_time, time_limit
-from ..foundation.numbers import atom_text, value_text
+from ..foundation.numbers import atom_text, rough_int, value_text
 from ..mathematics.second_opinion import second_opinion
 
 __all__ = ["Evaluator", "binding", "value_of_number_call"]
@@ -216,7 +216,7 @@ class Evaluator:
         base = self.number(node.base)
         exponent = self.number(node.exponent)
         if exponent.denominator != 1:
-            raise DomainError(f"the exponent must be an integer, not {exponent} "
+            raise DomainError(f"the exponent must be an integer, not {value_text(exponent)} "
                               "(a fractional power is not rational in general)").at(node.exponent)
         e = exponent.numerator
         if base == 0 and e < 0:
@@ -255,7 +255,7 @@ class Evaluator:
         lower = _integer(self.number(node.lower), "the lower end of a sum", node.lower)
         upper = _integer(self.number(node.upper), "the upper end of a sum", node.upper)
         count = upper - lower + 1
-        self.limits.require("terms", max(count, 0), f"a sum of {max(count, 0)} terms")
+        self.limits.require("terms", max(count, 0), f"a sum of {rough_int(max(count, 0))} terms")
         total = Fraction(0)
         for _ in binding(self.env, node.var, range(lower, upper + 1)):
             check_time()
@@ -438,7 +438,7 @@ def _reduced(h, k):
 
 def _integer(v: Fraction, what: str, node) -> int:
     if v.denominator != 1:
-        raise DomainError(f"{what} must be an integer, not {v}").at(node)
+        raise DomainError(f"{what} must be an integer, not {value_text(v)}").at(node)
     return v.numerator
 
 

@@ -83,7 +83,7 @@ def lattice_points_in(t, rows, equations=(), limits=None) -> Fraction:
 def _hstar_coefficient(j, poly, limits) -> Fraction:
     j = _as_integer(j, "the index of an h*-coefficient")
     if j < 0:
-        raise DomainError(f"the index of an h*-coefficient must be >= 0, not {j}")
+        raise DomainError(f"the index of an h*-coefficient must be >= 0, not {value_text(j)}")
     coefficients = _hstar(poly, _budget(limits, "the Ehrhart quasi-polynomial behind h*"))
     return Fraction(coefficients[j] if j < len(coefficients) else 0)
 
@@ -145,7 +145,7 @@ def staircase(count, a, b, m) -> Fraction:
     from ..mathematics.elementary import as_integer, as_positive
     count = as_integer(count, "the first argument of staircase")
     if count < 0:
-        raise DomainError(f"the number of terms of staircase must be >= 0, not {count}")
+        raise DomainError(f"the number of terms of staircase must be >= 0, not {value_text(count)}")
     return Fraction(_floor_sum(count, as_integer(a, "the second argument of staircase"),
                                as_integer(b, "the third argument of staircase"),
                                as_positive(m, "the fourth argument of staircase")))
@@ -240,8 +240,8 @@ def _cost_fourier(n, parts, b):
         ints, modulus = fast
         return ("terms", reciprocity_cost(ints, modulus),
                 f"a Fourier-Dedekind sum by reciprocity: {m} sums modulo the entries (up to "
-                f"{max(a % modulus for a in ints)}) and a polynomial part")
-    return ("terms", bb * m, f"a Fourier-Dedekind sum with {m} parameters modulo {bb}")
+                f"{rough_int(max(a % modulus for a in ints))}) and a polynomial part")
+    return ("terms", bb * m, f"a Fourier-Dedekind sum with {m} parameters modulo {rough_int(bb)}")
 
 
 def _cost_partitions(n, parts):
@@ -289,7 +289,7 @@ def _cost_residue_table(parts):
         parts = check_parts(parts, "nonrepresentable")
     except CertificateError:
         return None
-    return ("terms", min(parts) * len(parts), f"the residue table modulo {min(parts)}")
+    return ("terms", min(parts) * len(parts), f"the residue table modulo {rough_int(min(parts))}")
 
 
 def _cost_binomial(n, j):
@@ -297,7 +297,7 @@ def _cost_binomial(n, j):
     bits = max(1, _int_or_zero(n).bit_length()) if isinstance(n, Fraction) else 1
     if isinstance(n, Fraction) and n.denominator != 1:
         bits = n.numerator.bit_length() + n.denominator.bit_length()
-    return ("integer_bits", jj * bits, f"binomial with lower index {jj}")
+    return ("integer_bits", jj * bits, f"binomial with lower index {value_text(jj)}")
 
 
 def _cost_floor_sum(count, a, b, m):

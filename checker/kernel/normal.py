@@ -31,7 +31,7 @@ from ..language import expressions as ex
 from ..foundation.errors import BudgetExceeded, CertificateError, DomainError
 from ..foundation.limits import check_time
 from .functions import REGISTRY
-from ..foundation.numbers import atom_text, value_text
+from ..foundation.numbers import atom_text, rough_int, value_text
 from .evaluation import binding
 from .ratios import Ratio, ratio
 
@@ -254,12 +254,12 @@ class Normaliser:
     def _Power(self, node):
         e = self.evaluator.number(node.exponent)
         if e.denominator != 1:
-            raise DomainError(f"the exponent must be an integer, not {e}").at(node.exponent)
+            raise DomainError(f"the exponent must be an integer, not {value_text(e)}").at(node.exponent)
         base = self.normal(node.base)
         if len(base) <= 1 and ONE in base or not base:
             return constant(self.evaluator.number(node))
         if abs(e.numerator) > 10_000:
-            raise BudgetExceeded(f"a power {e.numerator} of an expression with function calls is "
+            raise BudgetExceeded(f"a power {value_text(e.numerator)} of an expression with function calls is "
                                  "too large to expand").at(node)
         out = power(base, e.numerator, self.limits.terms)
         if out is None:
@@ -304,7 +304,7 @@ class Normaliser:
         if lower.denominator != 1 or upper.denominator != 1:
             raise DomainError("the ends of a sum must be integers").at(node)
         count = max(0, upper.numerator - lower.numerator + 1)
-        self.limits.require("definition_terms", count, f"a sum of {count} terms")
+        self.limits.require("definition_terms", count, f"a sum of {rough_int(count)} terms")
         total: NF = {}
         for _ in binding(ev.env, node.var, range(lower.numerator, upper.numerator + 1)):
             total = add(total, self.normal(node.body))

@@ -39,6 +39,7 @@ from typing import Optional
 from ..language import expressions as ex
 from ..foundation.errors import CertificateError, DomainError
 from ..foundation.limits import check_time
+from ..foundation.numbers import rough_int, value_text
 from ..mathematics.partitions import check_parts
 from ..mathematics.polytopes import polytope_of_inequalities, polytope_of_vertices
 from .evaluation import binding
@@ -342,7 +343,8 @@ def _constituent_denominator(arg, s: Shape, var, ev, divisor: int = 1) -> int:
     D, L = s.degree, s.period
     start = 0 if s.threshold is None else s.threshold
     count = (D + 1) * L
-    ev.limits.require("terms", count, f"interpolating the {L} constituents of degree {D} inside a floor")
+    ev.limits.require("terms", count, f"interpolating the {rough_int(L)} constituents of degree {rough_int(D)} "
+                                      "inside a floor")
     values = _values(arg, var, range(start, start + count), ev)
     M = 1
     for r in range(L):
@@ -614,8 +616,9 @@ def _check_claimed(node, side, var, s: Shape, start, ev, period, degree, limits,
     for i in range(count):
         diff = sum((-1) ** j * comb(degree + 1, j) * values[i + j * period] for j in range(degree + 2))
         if diff:
-            return (f"the {side} side does not have period {period} and degree <= {degree}: at "
-                    f"{var} = {first + i} its difference of order {degree + 1} with step {period} is {diff}")
+            return (f"the {side} side does not have period {value_text(period)} and degree <= {value_text(degree)}: at "
+                    f"{var} = {value_text(first + i)} its difference of order {value_text(degree + 1)} with step "
+                    f"{value_text(period)} is {value_text(diff)}")
     return ""
 
 
@@ -630,14 +633,15 @@ def check_identity(lhs, rhs, var: str, lower: Optional[int], ev, limits,
     if lower is None and threshold is not None:
         side = lhs if left.threshold is not None else rhs
         raise NotQuasiPolynomial(
-            f"this side is a quasi-polynomial in {var} only from {var} = {threshold} on, so an identity "
+            f"this side is a quasi-polynomial in {var} only from {var} = {value_text(threshold)} on, so an identity "
             f"for all {var} cannot be decided; state it for {var} >= some bound").at(side)
     start = 0 if lower is None else lower if threshold is None else max(lower, threshold)
     below = 0 if lower is None else start - lower
-    limits.require("terms", below, f"checking the {below} values below the threshold {var} = {start}")
+    limits.require("terms", below,
+                   f"checking the {rough_int(below)} values below the threshold {var} = {value_text(start)}")
     # the difference satisfies a recurrence of order (D+1)|Z|, which is <= (D+1) L
     block = (degree + 1) * min(root_count(orders), period)
-    limits.require("terms", block + below, f"an identity of degree {degree} and period {period}")
+    limits.require("terms", block + below, f"an identity of degree {rough_int(degree)} and period {rough_int(period)}")
     ns = range(start - below, start + block)
     result = IdentityResult(True, degree, period, ns[0] if ns else start, len(ns), threshold)
     for n in binding(ev.env, var, ns):

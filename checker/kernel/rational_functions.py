@@ -28,6 +28,7 @@ from math import gcd as _gcd
 from typing import Union
 
 from ..foundation.limits import check_time
+from ..foundation.numbers import value_text
 from .ratios import Ratio
 
 __all__ = ["RationalFunction", "Value", "poly_text", "names_of", "is_integer_polynomial",
@@ -125,7 +126,7 @@ def _term_text(m: tuple, c: Fraction, first: bool) -> str:
 
 
 def _fraction_text(c: Fraction) -> str:
-    return str(c.numerator) if c.denominator == 1 else f"{c.numerator}/{c.denominator}"
+    return value_text(c)       # every digit, past 4,300 too
 
 
 def poly_text(p: dict) -> str:

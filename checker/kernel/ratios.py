@@ -101,7 +101,7 @@ class Ratio:
     def __new__(cls, numerator=0, denominator=1):
         n, d = _integer(numerator), _integer(denominator)
         if d == 0:
-            raise ZeroDivisionError(f"Ratio({n}, 0)")
+            raise ZeroDivisionError(f"Ratio({value_text(n)}, 0)")
         if d < 0:
             n, d = -n, -d
         if n.bit_length() > _GMP_BITS or d.bit_length() > _GMP_BITS:

@@ -29,7 +29,7 @@ from ..mathematics.bernoulli import bernoulli
 from ..foundation.errors import BudgetExceeded, CertificateError, DomainError
 from .functions import REGISTRY
 from .normal import ONE, add, atom_nf, atom_text, mul, power, scale, sub
-from ..foundation.numbers import value_text
+from ..foundation.numbers import rough_int, value_text
 from .rational_functions import RationalFunction, p_add, p_scale
 
 __all__ = ["SymbolicNormaliser", "line_text", "atom_label", "is_symbolic", "value_label",
@@ -276,7 +276,7 @@ class SymbolicNormaliser:
             raise DomainError("the exponent must be a whole number").at(node.exponent)
         e = e.numerator
         if abs(e) > 10_000:
-            raise BudgetExceeded(f"a power {e} is too large to expand in a lemma").at(node)
+            raise BudgetExceeded(f"a power {value_text(e)} is too large to expand in a lemma").at(node)
         base = self.normal(node.base)
         if e < 0:
             base, e = self._inverse(base, node.base), -e
@@ -292,7 +292,7 @@ class SymbolicNormaliser:
         if is_symbolic(lower) or is_symbolic(upper) or lower.denominator != 1 or upper.denominator != 1:
             raise DomainError("the ends of a sum in a lemma must be whole numbers").at(node)
         count = max(0, upper.numerator - lower.numerator + 1)
-        self.limits.require("definition_terms", count, f"a sum of {count} terms")
+        self.limits.require("definition_terms", count, f"a sum of {rough_int(count)} terms")
         saved = self.env.get(node.var, None)
         total: dict = {}
         try:
@@ -378,7 +378,7 @@ class SymbolicNormaliser:
             if is_symbolic(n) or n.denominator != 1 or n < 0:
                 raise DomainError("bernoulli(n, x) with parameters needs a whole number n >= 0").at(node)
             n = n.numerator
-            self.limits.require("bernoulli_index", n, f"bernoulli({n}, x)")
+            self.limits.require("bernoulli_index", n, f"bernoulli({value_text(n)}, x)")
             from math import comb
             total = Fraction(0)
             for j in range(n + 1):

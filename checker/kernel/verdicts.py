@@ -18,6 +18,7 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 
 from ..foundation.errors import CertificateError, RuleRefused
+from ..foundation.numbers import rough_int, value_text
 from .normal import NF, atom_text, atoms, constant, scale, sub, substitute
 from .ratios import Ratio
 from .rules import RULES, WHOLE_LINE_RULES
@@ -265,13 +266,14 @@ def representation_problem(terms, parts, m) -> str:
         if any(f < 0 for f in factors):
             return "a representation adds non-negative multiples of parts; a factor is negative"
         if not any(f in parts for f in factors):
-            return f"the term {'*'.join(map(str, factors))} has no factor among the parts {list(parts)}"
+            return (f"the term {'*'.join(map(value_text, factors))} has no factor among the parts "
+                    f"{value_text(list(parts))}")
         product = 1
         for f in factors:
             product *= f
         total += product
     if total != m:
-        return f"the terms add up to {total}, not {m}"
+        return f"the terms add up to {value_text(total)}, not {value_text(m)}"
     return ""
 
 
@@ -282,11 +284,12 @@ def frobenius_witness_problem(parts, g: int, represented: set, ways_for_g) -> st
     multiples of min(A) then represents every larger integer.
     """
     if ways_for_g != 0:
-        return f"{g} is representable ({ways_for_g} way{'s' if ways_for_g != 1 else ''}), so it is not the Frobenius number"
+        return (f"{value_text(g)} is representable ({rough_int(int(ways_for_g))} way{'s' if ways_for_g != 1 else ''}), "
+                "so it is not the Frobenius number")
     smallest = min(parts)
     missing = sorted(set(range(g + 1, g + smallest + 1)) - represented)
     if missing:
-        shown = ", ".join(str(m) for m in missing[:8])
-        return (f"the witness must represent every integer from {g + 1} to {g + smallest}; "
+        shown = ", ".join(value_text(m) for m in missing[:8])
+        return (f"the witness must represent every integer from {value_text(g + 1)} to {value_text(g + smallest)}; "
                 f"missing: {shown}")
     return ""

@@ -380,13 +380,13 @@ class _Replay:
         degree = None if stmt.degree is None else self._whole(stmt.degree, "a claimed degree")
         r = check_identity(stmt.lhs, stmt.rhs, stmt.var, lower, self.evaluator, self.limits, period, degree)
         v = stmt.var
-        summary = (f"degree <= {r.degree}, period dividing {r.period}"
-                   + (f", a quasi-polynomial from {v} = {r.threshold} on" if r.threshold is not None else ""))
+        summary = (f"degree <= {value_text(r.degree)}, period dividing {value_text(r.period)}"
+                   + (f", a quasi-polynomial from {v} = {value_text(r.threshold)} on" if r.threshold is not None else ""))
         if r.ok:
             self._ok()
             self.report.notes.append(
                 f"line {stmt.pos.line}: identity holds: {summary}; {r.points} values compared "
-                f"({v} = {r.start}..{r.start + r.points - 1})")
+                f"({v} = {value_text(r.start)}..{value_text(r.start + r.points - 1)})")
             return
         name = f"identity '{stmt.label}'" if stmt.label else "the identity"
         pos = stmt.rhs.pos
@@ -395,11 +395,11 @@ class _Replay:
             self._fail(Failure(pos.line, pos.column, f"{name}: {r.problem}", [f"inferred: {summary}"],
                                end_column=pos.end_column if pos.end_line == pos.line else None))
             return
-        self._fail(Failure(pos.line, pos.column, f"{name} fails at {v} = {r.counterexample}",
+        self._fail(Failure(pos.line, pos.column, f"{name} fails at {v} = {value_text(r.counterexample)}",
                            [f"left side:  {value_text(r.left)}", f"right side: {value_text(r.right)}",
                             f"difference (right - left): {value_text(r.right - r.left)}",
                             f"inferred: {summary}; the first {v} where the sides differ among "
-                            f"{v} = {r.start}..{r.start + r.points - 1}"],
+                            f"{v} = {value_text(r.start)}..{value_text(r.start + r.points - 1)}"],
                            end_column=pos.end_column if pos.end_line == pos.line else None,
                            claimed=r.right, exact=r.left))
 
@@ -426,7 +426,7 @@ class _Replay:
             why = representation_problem(_products(rep.combination), parts, m)
             if why:
                 p = rep.pos
-                self._fail(Failure(p.line, p.column, f"the witness for frobenius is wrong: {m} = ...: {why}",
+                self._fail(Failure(p.line, p.column, f"the witness for frobenius is wrong: {value_text(m)} = ...: {why}",
                                    end_column=p.end_column if p.end_line == p.line else None))
                 return
             represented.add(m)

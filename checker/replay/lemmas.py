@@ -28,7 +28,7 @@ from ..foundation.errors import BudgetExceeded, CertificateError, DomainError, O
 from ..kernel.functions import REGISTRY
 from .instances import Sampler, names_in
 from ..kernel.verdicts import check_step, conclusion_problem, known_rule, uncovered_residues
-from ..foundation.numbers import value_text
+from ..foundation.numbers import rough_int, value_text
 from ..kernel.rational_functions import RationalFunction
 from .report import Failure
 from .step_details import cited_rules, lemma_statements, rule_details, short, unknown_rule
@@ -355,7 +355,7 @@ class LemmaCheck:
             raise CertificateError("a split needs a whole modulus >= 2").at(split.modulus)
         m = m.numerator
         if m > 10_000:
-            raise CertificateError(f"a split modulo {m} has too many classes to check here (at most 10000)").at(split.modulus)
+            raise CertificateError(f"a split modulo {value_text(m)} has too many classes to check here (at most 10000)").at(split.modulus)
         residues = []
         for case in split.cases:
             r = self.evaluator.number(case.residue)
@@ -528,4 +528,4 @@ def _instance_summary(found: list, params: tuple) -> str:
 
 def _magnitude(v: Fraction) -> str:
     n = abs(v.numerator)
-    return value_text(v) if n < 10**9 else f"about {'-' if v < 0 else ''}10^{len(str(n)) - 1}"
+    return value_text(v) if n < 10**9 else rough_int(v.numerator, 10**9)

@@ -108,7 +108,7 @@ class Certificate:
         return self.claim(f"{function}({', '.join(_value(a) for a in args)})", result)
 
     def identity(self, lhs: str, rhs: str, var: str = "n", start: int | None = 0) -> "Certificate":
-        quantifier = f"all {var}" if start is None else f"{var} >= {start}"
+        quantifier = f"all {var}" if start is None else f"{var} >= {_value(start)}"
         self._lines.append(f"identity for {quantifier}: {lhs} = {rhs}")
         self._count += 1
         return self

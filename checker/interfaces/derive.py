@@ -45,7 +45,7 @@ def derive_dedekind(h: int, k: int, label: str = "derived", per_line: int | None
     """A certificate whose chain computes s(h, k) by reciprocity and reduction, `per_line` steps of
     them on a line (None: `steps_per_line`)."""
     if k < 1:
-        raise DomainError(f"dedekind(h, k) needs k >= 1, not {k}")
+        raise DomainError(f"dedekind(h, k) needs k >= 1, not {value_text(k)}")
     out = [f'title "s({value_text(h)}, {value_text(k)}) by reciprocity and reduction"',
            "# written by quasicert derive; check it with: quasicert check FILE",
            f"chain {label}: dedekind({value_text(h)}, {value_text(k)})"]
@@ -131,11 +131,12 @@ def derive_fourier_dedekind(n: int, parts, b: int, label: str = "derived", per_l
     from ..mathematics.fourier_dedekind import fourier_dedekind
     from ..mathematics.fourier_dedekind_reciprocity import bridge_constant, poly_at
     if b < 1:
-        raise DomainError(f"fourier_dedekind(n, A, b) needs b >= 1, not {b}")
+        raise DomainError(f"fourier_dedekind(n, A, b) needs b >= 1, not {value_text(b)}")
     fourier_dedekind(n % b, [a % b for a in parts], 1)     # only the argument checks
     for a in parts:
         if gcd(a, b) != 1:
-            raise DomainError(f"fourier_dedekind needs every entry coprime to {b}, but gcd({a}, {b}) = {gcd(a, b)}")
+            raise DomainError(f"fourier_dedekind needs every entry coprime to {value_text(b)}, but "
+                              f"gcd({value_text(a)}, {value_text(b)}) = {value_text(gcd(a, b))}")
     out = [f'title "{_fd_text(n, parts, b)} by its laws"',
            "# written by quasicert derive; check it with: quasicert check FILE",
            f"chain {label}: {_fd_text(n, parts, b)}"]
@@ -198,7 +199,7 @@ def _law_chain(m: int, reduced, b: int, label, bridge: bool = False) -> list[str
     for a, (p, q) in ((a, rest) for a, rest in companions):
         x = p * pow(q, -1, a) % a
         total -= bridge_constant(a)
-        terms.append(f" + dedekind({x}, {a})")
+        terms.append(f" + dedekind({value_text(x)}, {value_text(a)})")
         rules.append("bridge")
     out.append(f"  = {value_text(total)}" + "".join(terms) + f"    by {', '.join(rules + ['value'])}")
     if not terms:                  # every companion was modulo 1: the line is already the value
@@ -259,13 +260,13 @@ def derive_partitions(parts, var: str = "n", label: str = "derived") -> str:
            "# P_A = polynomial part + one wave of period b for each b > 1 dividing a part;",
            f"# it equals p_A({var}) for {var} > -(sum of the parts)",
            f"let A = {a_text}",
-           f"identity {label}: for {var} >= {start}:",
+           f"identity {label}: for {var} >= {value_text(start)}:",
            f"  partitions({var}, A) = " + "\n    + ".join(terms)]
     if len(set(parts)) == len(parts) and all(gcd(a, c) == 1 for i, a in enumerate(parts) for c in parts[i + 1:]):
-        fd = [f"fourier_dedekind(-{var}, {_list_text(parts[:i] + parts[i + 1:])}, {a})"
+        fd = [f"fourier_dedekind(-{var}, {_list_text(parts[:i] + parts[i + 1:])}, {value_text(a)})"
               for i, a in enumerate(parts) if a > 1]
         out += ["# pairwise coprime parts: the waves are Fourier-Dedekind sums",
-                f"identity {label}_sums: for {var} >= {start}:",
+                f"identity {label}_sums: for {var} >= {value_text(start)}:",
                 f"  partitions({var}, A) = {_polynomial_text(qp.polynomial, var)}"
                 + "".join(f"\n    + {t}" for t in fd)]
     return "\n".join(out) + "\n"
@@ -285,17 +286,18 @@ def derive_ehrhart(call_text: str, poly, table, var: str = "t", label: str = "de
     D = poly.denominator
     period = _smallest_period(table)
     table = table[:period]
+    d_text, p_text = value_text(D), value_text(period)
     lines = [f'title "Ehrhart quasi-polynomial of {call_text}"',
              "# written by quasicert derive; check it with: quasicert check FILE"]
     if poly.empty:
         lines.append("# the polytope is empty: no lattice points in any dilate, t = 0 included")
     else:
-        lines.append(f"# dimension {poly.dimension}, vertex denominator {D}: the period divides {D} (Ehrhart)")
+        lines.append(f"# dimension {poly.dimension}, vertex denominator {d_text}: the period divides {d_text} (Ehrhart)")
         if period < D:
-            lines.append(f"# period collapse: the constituents repeat with period {period}, not {D}")
-        lines.append(f"# one constituent polynomial (constant term first) per residue of {var} mod {period}")
+            lines.append(f"# period collapse: the constituents repeat with period {p_text}, not {d_text}")
+        lines.append(f"# one constituent polynomial (constant term first) per residue of {var} mod {p_text}")
     text = "[" + ", ".join(_list_text(row) for row in table) + "]"
-    lines += [f"identity {label}: for {var} >= 0, period {period}, degree {max(len(r) for r in table) - 1}:",
+    lines += [f"identity {label}: for {var} >= 0, period {p_text}, degree {max(len(r) for r in table) - 1}:",
               f"  {call_text} = constituents({var}, {text})"]
     return "\n".join(lines) + "\n"
 
@@ -332,15 +334,16 @@ def derive_frobenius(parts, label: str = "derived") -> str:
             a = last[r]
             counts[a] += 1
             r = (r - a) % a1
-        terms = [(f"{c}*{a}" if c != 1 else f"{a}") for a, c in counts.items() if c]
+        terms = [(f"{value_text(c)}*{value_text(a)}" if c != 1 else value_text(a)) for a, c in counts.items() if c]
         return " + ".join(terms) if terms else "0"
 
-    reps = [f"  {m} = {representation(m)}" for m in range(g + 1, g + a1 + 1)]
+    reps = [f"  {value_text(m)} = {representation(m)}" for m in range(g + 1, g + a1 + 1)]
     return "\n".join([
         f'title "Frobenius number of {_list_text(parts)}"',
         "# written by quasicert derive; check it with: quasicert check FILE",
-        f"# {g} is not representable, and every integer from {g + 1} to {g + a1} is, hence every larger one",
-        f"witness {label}: frobenius({_list_text(parts)}) = {g}:",
+        f"# {value_text(g)} is not representable, and every integer from {value_text(g + 1)} to {value_text(g + a1)} "
+        "is, hence every larger one",
+        f"witness {label}: frobenius({_list_text(parts)}) = {value_text(g)}:",
         ",\n".join(reps)]) + "\n"
 
 

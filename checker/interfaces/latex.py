@@ -13,6 +13,7 @@ from ..language import expressions as ex
 from ..language import statements as st
 from ..replay.checking import check_certificate
 from ..language.parsing import parse_certificate
+from ..foundation.numbers import int_text
 
 __all__ = ["certificate_latex", "expression_latex"]
 
@@ -51,8 +52,17 @@ def _breakable(text: str) -> str:
 
 def _number(value: int) -> str:
     if value.bit_length() >= 200_000:
-        return r"\langle\text{a number of " + str(len(str(abs(value)))) + r" digits}\rangle"
-    return _digits(str(value))
+        return r"\langle\text{a number of " + str(_digit_count(value)) + r" digits}\rangle"
+    return _digits(int_text(value))
+
+
+def _digit_count(n: int) -> int:
+    """The number of decimal digits of |n|, without writing it (str() refuses past 4,300 digits)."""
+    n = abs(n)
+    d = max(1, int((n.bit_length() - 1) * 0.30102999566398120))     # log10(2): at most one too few
+    while 10 ** d <= n:
+        d += 1
+    return d
 
 
 def _left(delimiter: str) -> str:
@@ -309,7 +319,7 @@ def _fraction(value) -> str:
     p, q = abs(value.numerator), value.denominator
     if q == 1:
         return sign + _number(p)
-    if len(str(p)) + len(str(q)) > 40:
+    if p.bit_length() + q.bit_length() > 200 or len(int_text(p)) + len(int_text(q)) > 40:
         return sign + _number(p) + "/" + _number(q)
     return sign + r"\frac{" + _number(p) + "}{" + _number(q) + "}"
 

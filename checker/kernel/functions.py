@@ -344,7 +344,7 @@ REGISTRY: dict[str, FunctionSpec] = {s.name: s for s in [
     _spec("dedekind_rademacher", "h, k, x, y",
           "s(h, k; x, y) = sum_{j mod k} ((h(j+y)/k + x)) (((j+y)/k))",
           dedekind_rademacher, (4, 4), False,
-          lambda h, k, x, y: _cost_linear(k, f"a Dedekind-Rademacher sum of {_int_or_zero(k)} terms")),
+          lambda h, k, x, y: _cost_linear(k, f"a Dedekind-Rademacher sum of {rough_int(_int_or_zero(k))} terms")),
     _spec("generalized_dedekind", "p, h, k", "s_p(h, k) = sum_{j mod k} (j/k) Bbar_p(hj/k)",
           generalized_dedekind, (3, 3), False, _cost_generalized),
     _spec("fourier_dedekind", "n, [a1, ..., am], b",

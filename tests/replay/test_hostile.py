@@ -299,6 +299,80 @@ def test_numbers_past_python_s_text_cap_never_raise():
     assert seen > 200
 
 
+SAFETY_NET = "more than 4,300 digits"      # checker.foundation.errors.unwritable_number
+
+
+def _written(report) -> str:
+    return " ".join(f.message + " " + " ".join(f.details) for f in report.failures)
+
+
+def test_numbers_past_python_s_text_cap_write_the_real_message():
+    """Every function with an argument of 5,000 digits (odd, even, negative, a fraction, in a list,
+    in a point): the failure says what is wrong with the number, never only that it is too long to
+    write (the safety net's message)."""
+    import itertools
+    from checker import CertificateError, evaluate
+    from checker.kernel.functions import REGISTRY
+    odd, even = "7" * 5000, "2" * 5000
+    shapes = [odd, "-" + odd, even, "-" + even, "1/" + odd, odd + "/2", f"[{odd}, 3]", f"[{even}, {even}0]",
+              f"[3, {even}, {even}1, {even}3]", f"[{odd}, 3, 5, 7, 11]", f"[[0, 0], [{odd}, 1], [1, 1]]",
+              f"[[0, 0, 0], [{odd}, 1, 0], [1, 1, 0], [0, 0, 1]]",
+              f"[[1/{odd}, 0, 0], [1, 0, 0], [0, 1, 0], [0, 0, 1]]",
+              f"[[1, 0, 0, {odd}], [0, 1, 0, 1], [0, 0, 1, 1], [-1, -1, -1, 0]]", f"[[1, 0, {even}], [-1, 0, 0]]"]
+    seen = 0
+    for name, spec in sorted(REGISTRY.items()):
+        count = min(spec.arity[1], 4)
+        for position, shape, filler in itertools.product(range(count), shapes, ("3", "[2, 3]")):
+            args = [filler] * count
+            args[position] = shape
+            text = f"{name}({', '.join(args)})"
+            assert SAFETY_NET not in _written(check_text(f"claim {text} = 1\n")), text[:60]
+            try:
+                evaluate(text)
+            except CertificateError as e:
+                assert SAFETY_NET not in e.message, text[:60]
+            seen += 1
+    assert seen > 1000
+
+
+def test_rule_refusals_past_python_s_text_cap_write_the_real_message():
+    """Each rule refused (or its next line mismatched) on calls with 5,000-digit arguments: the
+    step's failure carries the rule's own reason, or the function's error, with every digit."""
+    odd, even, k = "7" * 5000, "2" * 5000, "1" + "0" * 4999 + "3"
+    cases = [
+        ("reduce", f"dedekind(3, {k})", f"dedekind(5, {k})", "is already reduced"),
+        ("reduce", f"generalized_dedekind(3, 1, -{odd})", "0", "must be a positive integer, not -7777"),
+        ("reciprocity", f"dedekind(-{odd}, {k})", "0", f"but h = -{odd}"),
+        ("reciprocity", f"dedekind({even}, {even}0)", "0", f"gcd({even}, {even}0) = {even}"),
+        ("reciprocity", f"fourier_dedekind({odd}, [1, 3], 5)", "0", f"not at n = {odd}"),
+        ("reciprocity", f"fourier_dedekind(0, [{even}, 3], {even}1)", "0", "reciprocity gives"),
+        ("descent", f"dedekind({even}, {even}0)", "dedekind(1, 3)", f"= {even}"),
+        ("descent", f"dedekind({odd}, {k})", "dedekind(1, 3)", "they go ("),
+        ("descent", f"dedekind(-{odd}, {k})", "dedekind(1, 3)", f"but h = -{odd}"),
+        ("inverse", f"dedekind({even}, {even}0)", "0", f"gcd({even}, {even}0) = {even}"),
+        ("common_factor", f"dedekind({odd}, {k})", "0", "has no common factor"),
+        ("three_term", f"dedekind({odd}, {k})", f"dedekind(1, {even}) + dedekind(2, {k})", "the three-term law"),
+        ("three_term", f"dedekind(1, {k})", "dedekind(1, 3) + dedekind(2, 5)", "the law needs"),
+        ("negate", f"fourier_dedekind(0, [1, 2], {k})", "0", "it does not apply to fourier_dedekind"),
+        ("bridge", f"fourier_dedekind({odd}, [1, 3], {k})", "0", f"n = {odd} is not 0 mod {k}"),
+        ("bridge", f"fourier_dedekind(0, [{even}, 3], {even}0)", "0", f"coprime to {even}0"),
+        ("bridge", f"dedekind(5, {k})", f"fourier_dedekind(0, [1, 3], {k})", f"is not s(a c', b) for [a, c]"),
+        ("bridge", f"dedekind(5, {k})", "0", f"fourier_dedekind(0, [a, c], {k})"),
+        ("decomposition", f"partitions(-{odd}, [2, 3])", "0", f"not at n = -{odd}"),
+        ("decomposition", f"partitions(5, [{even}, {even}0])", "0", f"gcd({even}, {even}0) = {even}"),
+        ("decomposition", f"partitions(5, [-{odd}, 3])", "0", f"not -{odd}"),
+        ("decomposition", f"fourier_dedekind(-{odd}, [2, 3], 5)", "0", f"partitions({odd}, A)"),
+        ("definition", f"dedekind(1, {k})", "0", f"writing dedekind(h, {k})"),
+        ("definition", f"generalized_dedekind(3, 1, {k})", "0", f"a sum of {k} terms"),
+        ("definition", f"dedekind_rademacher(1, {k}, 0, 0)", "0", "about 2^16609 terms"),
+    ]
+    for rule, call, nxt, reason in cases:
+        report = check_text(f"chain {call}\n  = {nxt}   by {rule}\n")
+        written = _written(report)
+        assert not report.ok and SAFETY_NET not in written, (rule, call[:40])
+        assert reason in written, (rule, call[:40], reason[:40], written[:300])
+
+
 def test_a_message_python_cannot_write_is_a_plain_error(monkeypatch):
     # any message left that writes a long int with str(): the statement fails with a plain error
     from checker import CertificateError, evaluate

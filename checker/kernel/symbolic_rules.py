@@ -272,7 +272,7 @@ def _by_definition(facts, limits, atom, target):
     if isinstance(k, RationalFunction):
         _refuse("definition needs a number k: a sum of k terms cannot be written out for a parameter k")
     k = k.numerator
-    limits.require("definition_terms", k, f"writing dedekind(h, {k}) out by its definition")
+    limits.require("definition_terms", k, f"writing dedekind(h, {value_label(k)}) out by its definition")
     total: dict = {}
     for j in range(1, k):
         other = fixed_sawtooth(facts, h * Fraction(j, k))

@@ -371,6 +371,10 @@ def test_rule_refusals_past_python_s_text_cap_write_the_real_message():
         written = _written(report)
         assert not report.ok and SAFETY_NET not in written, (rule, call[:40])
         assert reason in written, (rule, call[:40], reason[:40], written[:300])
+    # and in a lemma, where the rules act on parameters
+    lemma = f"lemma f(h) for h >= 1:\n  dedekind(h, {k}) = 0\n  chain dedekind(h, {k})\n    = 0   by definition\nend\n"
+    written = _written(check_text(lemma))
+    assert SAFETY_NET not in written and f"writing dedekind(h, {k}) out by its definition" in written
 
 
 def test_a_message_python_cannot_write_is_a_plain_error(monkeypatch):

@@ -393,7 +393,7 @@ def _cmd_derive(ns, out, err) -> int:
         raise UsageError("--steps-per-line wants a whole number >= 1")
     _refuse_overwrite(ns.output, ns.force)
     try:
-        text = derive(ns.expression, ns.steps_per_line)
+        text = derive(ns.expression, ns.steps_per_line, _limits_from(ns.limit))
     except CertificateError as e:
         _print_error(e, ns.expression, "the expression", err)
         return EXIT_ERROR
@@ -451,6 +451,8 @@ def _parser() -> argparse.ArgumentParser:
     d.add_argument("--steps-per-line", type=int, default=None, metavar="N",
                    help="put N steps of reciprocity and reduce on each line of a Dedekind chain (cited as "
                         "descent when N > 1); by default one while the chain fits in about 100 lines")
+    d.add_argument("--limit", action="append", metavar="NAME=N", default=[],
+                   help="raise or lower a budget, e.g. --limit terms=100000000")
     t = sub.add_parser("latex", help="write a checked certificate as a LaTeX document (failures marked)")
     t.add_argument("path", help="a certificate, or - for standard input")
     t.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")

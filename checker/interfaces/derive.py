@@ -18,7 +18,8 @@ from ..kernel.evaluation import Evaluator
 from ..kernel.ratios import long_integer
 from ..mathematics.dedekind import reciprocity_descent
 from ..language.expressions import Call
-from ..foundation.numbers import value_text
+from ..foundation.limits import DEFAULT_LIMITS, Limits
+from ..foundation.numbers import rough_int, value_text
 from ..language.parsing import parse_expression
 
 __all__ = ["derive", "derive_dedekind", "derive_fourier_dedekind"]
@@ -238,11 +239,14 @@ def _list_text(values) -> str:
     return "[" + ", ".join(value_text(v) for v in values) + "]"
 
 
-def derive_partitions(parts, var: str = "n", label: str = "derived") -> str:
+def derive_partitions(parts, var: str = "n", label: str = "derived", limits: Limits = DEFAULT_LIMITS) -> str:
     """A certificate stating P_A as polynomial part plus periodic waves, and the identity with p_A."""
     from math import gcd
-    from ..mathematics.partitions import PartitionQuasiPolynomial, check_parts
+    from ..mathematics.partitions import PartitionQuasiPolynomial, check_parts, quasipolynomial_cost
     parts = check_parts(list(parts))
+    # the waves' cost, as p_A(n) by the waves is charged; a period b is also a list of b entries
+    limits.require("terms", quasipolynomial_cost(tuple(parts)) // 20 if parts else 0,
+                   f"writing the quasi-polynomial of p_A for parts up to {rough_int(max(parts, default=0))}")
     qp = PartitionQuasiPolynomial.of(tuple(parts))
     terms = [_polynomial_text(qp.polynomial, var)]
     for wave in qp.waves[1:]:
@@ -362,15 +366,16 @@ def _refuse_names(expr) -> None:
         stack.extend(ex.children(node))
 
 
-def derive(text: str, per_line: int | None = None) -> str:
+def derive(text: str, per_line: int | None = None, limits: Limits = DEFAULT_LIMITS) -> str:
     """A certificate for a call: dedekind(h, k), partitions(n, A), lattice_points(t, P), frobenius(A).
-    A Dedekind chain takes `per_line` steps of reciprocity and reduce on a line (None: automatic)."""
-    expr = parse_expression(text)
+    A Dedekind chain takes `per_line` steps of reciprocity and reduce on a line (None: automatic);
+    costly requests are refused beyond `limits`."""
+    expr = parse_expression(text, limits)
     if not isinstance(expr, Call):
         raise DomainError("derive writes certificates for one function call, "
                           "e.g. quasicert derive \"dedekind(5, 17)\"").at(expr)
     from ..language import expressions as ex
-    ev = Evaluator()
+    ev = Evaluator(None, limits)
     if expr.name != "frobenius" and expr.name not in ("partitions", "lattice_points", "lattice_points_in"):
         _refuse_names(expr)
     if expr.name == "dedekind" and len(expr.args) == 2:
@@ -386,7 +391,7 @@ def derive(text: str, per_line: int | None = None) -> str:
                               f"{expr.name}(n, ...), to derive its quasi-polynomial").at(var)
         arg = ev.value(expr.args[1])
         if expr.name == "partitions":
-            return derive_partitions(arg, var.name)
+            return derive_partitions(arg, var.name, limits=ev.limits)
         from ..mathematics.ehrhart import budget, constituents
         from ..mathematics.polytopes import polytope_of_inequalities, polytope_of_vertices
         if expr.name == "lattice_points":

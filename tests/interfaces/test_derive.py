@@ -308,3 +308,17 @@ def test_mutants_a_line_reader_could_misread_get_the_grammar_s_verdict(monkeypat
         assert slow[0] is accepted, (what, slow)
         if not accepted:
             assert slow[1][0] in (index + 1, index + 2), (what, slow)
+
+
+def test_derive_of_partitions_with_a_huge_part_is_refused_by_its_budget():
+    # writing P_A lists each wave of period b: a 5,000-digit part ran on with no end in sight
+    err = io.StringIO()
+    assert main(["derive", f"partitions(n, [{'7' * 5000}, 2])"], out=io.StringIO(), err=err) == 2
+    assert "limit: writing the quasi-polynomial of p_A for parts up to about 2^16609" in err.getvalue()
+    err = io.StringIO()
+    assert main(["derive", "partitions(n, [1000003, 2, 3])"], out=io.StringIO(), err=err) == 2
+    assert "over the limit terms = 3000000 (raise it with --limit terms=N)" in err.getvalue()
+    out = io.StringIO()
+    assert main(["derive", "partitions(n, [4, 9, 11])", "--limit", "terms=10"], out=io.StringIO(), err=err) == 2
+    assert main(["derive", "partitions(n, [4, 9, 11])", "--limit", "terms=100000"], out=out) == 0
+    assert check_text(out.getvalue()).ok

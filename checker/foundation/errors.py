@@ -92,8 +92,8 @@ def unwritable_number(e: BaseException) -> "DomainError | None":
     None for any other exception.  quasicert bounds its numbers itself (literal-digits,
     integer-bits) but keeps Python's cap, which guards every other conversion of text."""
     if isinstance(e, ValueError) and "integer string conversion" in str(e):
-        return DomainError("a number here has more than 4,300 digits, and the message about it could not be "
-                           "written (Python's cap on writing integers as text); nothing here was verified")
+        return DomainError("a number here has more than 4,300 digits, more than Python converts between text "
+                           "and integer at once (a message about it could not be written); nothing here was verified")
     return None
 
 

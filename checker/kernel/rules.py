@@ -130,8 +130,8 @@ _COPRIME_PAIRS: dict = {}       # pairs (a, b) with gcd(a, b) = 1, each proved b
 _COPRIME_PAIRS_SIZE = 64
 
 
-def _require_coprime(h: int, k: int) -> None:
-    """Refuse unless gcd(h, k) = 1 (h, k >= 1).
+def _require_coprime(h: int, k: int, who: str = "reciprocity needs") -> None:
+    """Refuse unless gcd(h, k) = 1 (h, k >= 1); `who` opens the refusal.
 
     A chain applies reciprocity to (h, k), then to (k mod h, h), ...: since
     gcd(k mod h, h) = gcd(h, k), each gcd proved here also proves the next pair,
@@ -140,7 +140,7 @@ def _require_coprime(h: int, k: int) -> None:
         return
     g = gcd(h, k)
     if g != 1:
-        _refuse(f"reciprocity needs coprime h and k, but gcd({_t(h)}, {_t(k)}) = {_t(g)}")
+        _refuse(f"{who} coprime h and k, but gcd({_t(h)}, {_t(k)}) = {_t(g)}")
     _remember_coprime(k % h, h)
 
 
@@ -199,10 +199,7 @@ def _descent(atom, target, limits):
     h, k = _dedekind_args(atom)
     if h < 1:
         _refuse(f"descent needs h >= 1 and k >= 1, but h = {_t(h)} (use reduce or negate first)")
-    try:
-        _require_coprime(h, k)
-    except RuleRefused as e:
-        _refuse(f"descent repeats reciprocity, which needs coprime h and k: {e.message.split(', but ')[-1]}")
+    _require_coprime(h, k, "descent repeats reciprocity, which needs")
     wanted = {(x, y) for x, y in _target_dedekind(target) if y >= 1 and (x, y) != (h, k)}
     found = _walk(h, k, wanted)
     if not found:
@@ -225,7 +222,7 @@ _WALKS_SIZE = 8
 def _walk(h: int, k: int, wanted: set) -> list:
     """reciprocity_descent(h, k, wanted), kept for the next identical request (a pure function of
     them; a walk of 60,000-digit numbers takes a second, and the suggestions for a failed step
-    try it with some 40 rule lists)."""
+    ask for it again with each rule list they try)."""
     if not wanted:
         return []
     key = (h, k, frozenset(wanted))

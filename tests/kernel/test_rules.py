@@ -253,7 +253,8 @@ def test_descent_refusals():
 
 
 def test_descent_in_a_chain_and_in_a_lemma():
-    assert chain("dedekind(5, 17)", "1/17 + dedekind(1, 2)", "descent").ok        # s(5, 17) = 1/17
+    # s(5, 17) = 1/17 (Rademacher & Grosswald's tables), s(1, 2) = 0
+    assert chain("dedekind(5, 17)", "1/17 + dedekind(1, 2)", "descent").ok
     report = check_text("lemma one(k) for k >= 2: dedekind(1, k) = (k - 1)*(k - 2)/(12*k)\n"
                         "  chain dedekind(1, k)\n"
                         "    = (k - 1)*(k - 2)/(12*k) - dedekind(0, 1)    by descent\n"
@@ -340,7 +341,8 @@ def test_a_failed_descent_walks_once_for_all_its_suggestions(monkeypatch):
                         lambda h, k, wanted: calls.append((h, k, frozenset(wanted))) or real(h, k, wanted))
     rules._WALKS.clear()
     k = 3 ** 400
-    c = dedekind(2, k) - F(1, 18)                     # s(1, 3) = 1/18: the value is right
+    # s(1, 3) = 1/18 by s(1, k) = (k - 1)(k - 2)/(12 k) (Rademacher & Grosswald, ch. 1): the value is right
+    c = dedekind(2, k) - F(1, 18)
     report = chain(f"dedekind(2, {k})", f"{c.numerator}/{c.denominator} + dedekind(1, 3)", "descent")
     assert not report.ok and "value check: passed" in " ".join(report.failure.details)
     # (1, 3) is off the walk: refused; each pair the rule lists lead to is walked once (5 walks without the memo)
